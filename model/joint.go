@@ -1,0 +1,453 @@
+package model
+
+import "math"
+
+// TighteningMethod selects how the assembly preload is obtained.
+type TighteningMethod uint8
+
+const (
+	// NutFactorMethod: FM = T/(K·d) (Shigley Eq. 8-27).
+	NutFactorMethod TighteningMethod = iota
+	// FrictionMethod: FM = T / (P/(2π) + 0.577·d2·μG + (DKm/2)·μK)
+	// (VDI 2230-1 / ISO 16047 form).
+	FrictionMethod
+	// DirectPreload: preload given directly (tension-controlled methods);
+	// no thread torsion.
+	DirectPreload
+)
+
+// String names the method as in scenario files.
+func (m TighteningMethod) String() string {
+	return [...]string{"nut-factor", "friction", "preload"}[m]
+}
+
+// Criterion selects the fatigue failure line.
+type Criterion uint8
+
+const (
+	Goodman      Criterion = iota // Sa/Se + Sm/Sut = 1 (Shigley Eq. 8-42)
+	Gerber                        // Sa/Se + (Sm/Sut)² = 1 (Shigley Eq. 8-43)
+	ASMEElliptic                  // (Sa/Se)² + (Sm/Sp)² = 1 (Shigley Eq. 8-44)
+	Amplitude                     // Sa = Se: amplitude limit without mean-stress correction (VDI 2230 σASV)
+)
+
+// String names the criterion as in scenario files.
+func (c Criterion) String() string {
+	return [...]string{"goodman", "gerber", "asme-elliptic", "amplitude"}[c]
+}
+
+// ShearRule selects the resistance formulas of the shear-side modes.
+type ShearRule uint8
+
+const (
+	// YieldRule: machine-design checks against yield (Shigley §8-12):
+	// shear at 0.577·Sy, bearing at Sy, net section at plate Sy,
+	// tear-out at 0.577·Sy of the plate.
+	YieldRule ShearRule = iota
+	// EN1993: characteristic resistances of EN 1993-1-8:2005 Table 3.4
+	// with all partial factors γM = 1.
+	EN1993
+	// AISC360: nominal strengths Rn of AISC 360-16 J3 (φ = 1, Ω = 1).
+	AISC360
+)
+
+// String names the rule as in scenario files.
+func (r ShearRule) String() string {
+	return [...]string{"yield", "en1993", "aisc360"}[r]
+}
+
+// Inputs is the flat set of values that define one joint. Every field is a
+// plain value so that a copy is cheap and the Monte Carlo driver can write
+// sampled values through pointers to the float64 fields.
+//
+// Units: N, mm, MPa, N·mm.
+type Inputs struct {
+	Thread Thread
+	Bolts  int // number of bolts sharing the loads (≥ 1)
+
+	Proof       float64 // proof strength Sp, MPa
+	Yield       float64 // yield strength Sy, MPa
+	Tensile     float64 // tensile strength Sut, MPa
+	AlphaV      float64 // EN 1993-1-8 αv for threads in the shear plane (0: 0.5)
+	BoltModulus float64 // MPa
+
+	ShankInGrip float64 // unthreaded shank length inside the grip ld, mm
+	BearingDia  float64 // outer diameter of the head/nut bearing face dW, mm
+	HoleDia     float64 // clearance hole diameter, mm
+
+	Layers           [MaxLayers]Layer
+	NLayers          int
+	StiffnessMethod  StiffnessMethod
+	MemberStiffness  float64 // km given directly, N/mm (0: computed)
+	LoadIntroduction float64 // VDI 2230 load-introduction factor n (0: 1)
+
+	Method         TighteningMethod
+	Torque         float64 // tightening torque, N·mm
+	NutFactor      float64 // K
+	ThreadFriction float64 // μG
+	HeadFriction   float64 // μK
+	Preload        float64 // assembly preload for DirectPreload, N
+	Embedding      float64 // total embedding (settlement) fZ, mm
+	Relaxation     float64 // further preload loss as a fraction of the assembly preload
+	TorsionFactor  float64 // share of assembly thread torsion left in service kτ (VDI 2230: 0.5)
+
+	AxialMax float64 // largest external axial load per bolt, N
+	AxialMin float64 // smallest external axial load per bolt, N
+
+	ShearLoad           float64 // shear force on the whole joint, N
+	ShearPlanes         float64 // shear planes (friction interfaces) per bolt
+	ThreadsInShearPlane bool
+	ShearRule           ShearRule
+	PlateThickness      float64 // thickness in bearing, mm
+	PlateWidth          float64 // plate width across the load, mm (0: no net-section check)
+	EdgeDistance        float64 // hole centre to edge in the load direction e1, mm
+	SideDistance        float64 // hole centre to edge across the load e2, mm (0: = EdgeDistance)
+	BoltsAcross         float64 // bolts in the critical cross-section (0: all bolts)
+	PlateYield          float64 // MPa
+	PlateTensile        float64 // MPa
+	SlipFactor          float64 // slip factor μ of the faying surfaces (0: no slip check)
+
+	Criterion Criterion
+	Endurance float64 // endurance strength Se (or σASV for Amplitude), MPa
+}
+
+// Grip returns the clamped length, the sum of the layer thicknesses (mm).
+func (in *Inputs) Grip() float64 {
+	g := 0.0
+	for _, l := range in.Layers[:in.NLayers] {
+		g += l.Thickness
+	}
+	return g
+}
+
+// BoltResult is the state of one bolt after tightening and under the
+// service load.
+type BoltResult struct {
+	AssemblyPreload float64 // FM, N
+	Preload         float64 // residual preload Fi after embedding and relaxation, N
+	ThreadTorque    float64 // thread torque in tightening MG, N·mm
+	BoltForce       float64 // largest bolt force Fi + Φ·Pmax, N
+	Clamp           float64 // residual clamp force Fi − (1 − Φ)·Pmax, N (negative once separated)
+	Demand          [Fatigue + 1]float64
+	Capacity        [Fatigue + 1]float64
+	Invalid         bool // an input lies outside the model's domain (e.g. a negative nut factor)
+}
+
+// Outcome is the state of the whole joint.
+type Outcome struct {
+	Stiffness Stiffness
+	Bolt     BoltResult // the bolt that governs the most modes (for identical bolts, any)
+	Demand   [NumModes]float64
+	Capacity [NumModes]float64
+	Active   [NumModes]bool
+	ClampSum float64 // sum over bolts of the residual clamp force (≥ 0 each), N
+	Invalid  bool
+}
+
+// Margin returns capacity − demand of mode m; the mode fails when it is ≤ 0.
+func (o *Outcome) Margin(m Mode) float64 { return o.Capacity[m] - o.Demand[m] }
+
+// SafetyFactor returns capacity/demand of mode m (for fatigue, the factor nf
+// along the load line).
+func (o *Outcome) SafetyFactor(m Mode) float64 { return o.Capacity[m] / o.Demand[m] }
+
+// Fails reports whether an active mode has a margin ≤ 0.
+func (o *Outcome) Fails(m Mode) bool { return o.Active[m] && o.Capacity[m] <= o.Demand[m] }
+
+const (
+	twoPi   = 2 * math.Pi
+	invSqr3 = 0.5773502691896258 // 1/√3: distortion-energy shear yield (Shigley Eq. 5-21); 1/(2·cos 30°) in the thread-torque term
+)
+
+// StressDiameter returns d0 = (d2 + d3)/2, the diameter of the stress area
+// used for torsion in the thread (VDI 2230-1).
+func (in *Inputs) StressDiameter() float64 { return (in.Thread.PitchDia + in.Thread.MinorDia) / 2 }
+
+// torqueTerms returns the lead term P/(2π), the thread-friction lever
+// 0.577·d2 and the head-friction lever DKm/2 = (dW + dh)/4 of the
+// torque–preload relation (VDI 2230-1 R13; ISO 16047 definitions).
+func (in *Inputs) torqueTerms() (lead, thread, head float64) {
+	return in.Thread.Pitch / twoPi, invSqr3 * in.Thread.PitchDia, (in.BearingDia + in.HoleDia) / 4
+}
+
+// EquivalentFriction returns the single friction coefficient μ (thread and
+// head alike) that a nut factor K implies through the ISO 16047 total-friction
+// definition:
+//
+//	μtot = (K·d − P/(2π)) / (0.577·d2 + DKm/2)
+func (in *Inputs) EquivalentFriction(k float64) float64 {
+	lead, thread, head := in.torqueTerms()
+	return (k*in.Thread.D - lead) / (thread + head)
+}
+
+// NutFactorOf returns the nut factor implied by thread and head friction:
+// K = (P/(2π) + 0.577·d2·μG + (DKm/2)·μK)/d.
+func (in *Inputs) NutFactorOf(muG, muK float64) float64 {
+	lead, thread, head := in.torqueTerms()
+	return (lead + thread*muG + head*muK) / in.Thread.D
+}
+
+// TorqueFor returns the tightening torque (N·mm) that gives assembly preload
+// fm with the joint's tightening method and friction values.
+func (in *Inputs) TorqueFor(fm float64) float64 {
+	switch in.Method {
+	case NutFactorMethod:
+		return in.NutFactor * fm * in.Thread.D
+	case FrictionMethod:
+		return fm * in.NutFactorOf(in.ThreadFriction, in.HeadFriction) * in.Thread.D
+	}
+	return 0
+}
+
+// EvaluateBolt computes the tightening and tension-side modes of one bolt.
+// It does not allocate.
+func EvaluateBolt(in *Inputs, s *Stiffness, b *BoltResult) {
+	th := &in.Thread
+	lead, thread, head := in.torqueTerms()
+	var fm, mg float64
+	invalid := false
+	switch in.Method {
+	case NutFactorMethod:
+		k := in.NutFactor
+		fm = in.Torque / (k * th.D)
+		mu := (k*th.D - lead) / (thread + head)
+		if mu < 0 {
+			mu = 0
+		}
+		mg = fm * (lead + thread*mu)
+		invalid = !(k > 0)
+	case FrictionMethod:
+		mt := lead + thread*in.ThreadFriction
+		fm = in.Torque / (mt + head*in.HeadFriction)
+		mg = fm * mt
+		invalid = !(in.ThreadFriction >= 0 && in.HeadFriction >= 0)
+	default:
+		fm = in.Preload
+	}
+	invalid = invalid || !(fm >= 0 && fm < math.Inf(1)) || !(in.Endurance > 0 && in.Proof > 0 && in.Yield > 0 && in.Tensile > 0)
+	as := th.StressArea
+	d0 := in.StressDiameter()
+	wp := math.Pi / 16 * d0 * d0 * d0
+
+	// Preload loss by embedding, FZ = fZ·kb·km/(kb + km) (VDI 2230-1), and relaxation.
+	fz := in.Embedding * s.Kb * s.Km / (s.Kb + s.Km)
+	fi := fm*(1-in.Relaxation) - fz
+	if fi < 0 {
+		fi = 0
+	}
+	phi := s.Phi
+	pmax, pmin := in.AxialMax, in.AxialMin
+	fb := fi + phi*pmax
+
+	b.AssemblyPreload, b.Preload, b.ThreadTorque, b.BoltForce = fm, fi, mg, fb
+	b.Clamp = fi - (1-phi)*pmax
+	b.Invalid = invalid
+
+	// Assembly: σred = √(σ² + 3τ²), σ = FM/As, τ = MG/Wp, Wp = π·d0³/16 (VDI 2230-1).
+	sig, tau := fm/as, mg/wp
+	b.Demand[AssemblyYield] = math.Sqrt(sig*sig + 3*tau*tau)
+	b.Capacity[AssemblyYield] = in.Yield
+
+	// Proof: Fb = Fi + Φ·Pmax against Sp·As (Shigley Eq. 8-28).
+	b.Demand[Proof] = fb
+	b.Capacity[Proof] = in.Proof * as
+
+	// Service: tension Fb/As with residual torsion kτ·τ (VDI 2230-1).
+	sig = fb / as
+	tau *= in.TorsionFactor
+	b.Demand[ServiceYield] = math.Sqrt(sig*sig + 3*tau*tau)
+	b.Capacity[ServiceYield] = in.Yield
+
+	// Separation: P ≥ Fi/(1 − Φ) (Shigley Eq. 8-30).
+	b.Demand[Separation] = pmax
+	b.Capacity[Separation] = fi / (1 - phi)
+
+	// Fatigue on the load line through the preload stress σi.
+	if pmax > pmin {
+		sa := phi * (pmax - pmin) / (2 * as)
+		b.Demand[Fatigue] = sa
+		b.Capacity[Fatigue] = StrengthAmplitude(in.Criterion, in.Endurance, in.Tensile, in.Proof, fi/as, (pmax+pmin)/(pmax-pmin))
+	} else {
+		b.Demand[Fatigue], b.Capacity[Fatigue] = 0, 0
+	}
+}
+
+// StrengthAmplitude returns the strength amplitude Sa where the load line
+// through the preload stress σi meets the failure line of criterion c. The
+// load line is Sm = σi + q·Sa with q = (σm − σi)/σa = (Pmax + Pmin)/(Pmax − Pmin)
+// (q = 1 for repeated loading 0…P). The fatigue factor is nf = Sa/σa; for
+// Goodman this is Shigley Eq. 8-38, for q = 1 Eqs. 8-45 to 8-47.
+// The result is never negative: a preload stress already on or beyond the
+// failure line leaves no amplitude.
+func StrengthAmplitude(c Criterion, se, sut, sp, si, q float64) float64 {
+	var sa float64
+	switch c {
+	case Goodman:
+		// Sa/Se + (σi + q·Sa)/Sut = 1
+		sa = se * (sut - si) / (sut + q*se)
+	case Gerber:
+		// Sa/Se + ((σi + q·Sa)/Sut)² = 1  →  a·Sa² + b·Sa + c = 0
+		a := q * q / (sut * sut)
+		bb := 1/se + 2*q*si/(sut*sut)
+		cc := si*si/(sut*sut) - 1
+		sa = quadRoot(a, bb, cc)
+	case ASMEElliptic:
+		// (Sa/Se)² + ((σi + q·Sa)/Sp)² = 1
+		a := 1/(se*se) + q*q/(sp*sp)
+		bb := 2 * q * si / (sp * sp)
+		cc := si*si/(sp*sp) - 1
+		sa = quadRoot(a, bb, cc)
+	default:
+		sa = se
+	}
+	if !(sa > 0) {
+		return 0
+	}
+	return sa
+}
+
+// quadRoot returns the larger root of a·x² + b·x + c = 0 (a ≥ 0), in the
+// cancellation-free form 2c/(−b − √(b² − 4ac)) when b > 0; NaN when there
+// is no real root.
+func quadRoot(a, b, c float64) float64 {
+	disc := b*b - 4*a*c
+	if disc < 0 {
+		return math.NaN()
+	}
+	r := math.Sqrt(disc)
+	if b > 0 {
+		return 2 * c / (-b - r)
+	}
+	return (-b + r) / (2 * a)
+}
+
+// EvaluateJoint combines per-bolt results with the shear-side modes of the
+// joint. bolts holds either one result per bolt, or a single result standing
+// for in.Bolts identical bolts. It does not allocate.
+//
+// A bolt mode fails for the joint when any bolt fails it; the joint's demand
+// and capacity are those of the bolt with the smallest safety factor. Slip
+// uses the summed residual clamp force of all bolts.
+func EvaluateJoint(in *Inputs, s *Stiffness, bolts []BoltResult, out *Outcome) {
+	out.Stiffness = *s
+	out.Invalid = false
+	clamp := 0.0
+	for i := range bolts {
+		if c := bolts[i].Clamp; c > 0 {
+			clamp += c
+		}
+		out.Invalid = out.Invalid || bolts[i].Invalid
+	}
+	clamp *= float64(in.Bolts) / float64(len(bolts))
+	out.ClampSum = clamp
+	out.Bolt = bolts[0]
+	for m := AssemblyYield; m <= Fatigue; m++ {
+		w := 0
+		for i := 1; i < len(bolts); i++ {
+			// bolt i is worse when cap_i/dem_i < cap_w/dem_w (demands are positive).
+			if bolts[i].Capacity[m]*bolts[w].Demand[m] < bolts[w].Capacity[m]*bolts[i].Demand[m] {
+				w = i
+			}
+		}
+		out.Demand[m] = bolts[w].Demand[m]
+		out.Capacity[m] = bolts[w].Capacity[m]
+	}
+	out.Active[AssemblyYield] = in.Method != DirectPreload || in.Preload > 0
+	out.Active[Proof] = true
+	out.Active[ServiceYield] = true
+	out.Active[Separation] = in.AxialMax > 0
+	out.Active[Fatigue] = in.AxialMax > in.AxialMin
+	shearModes(in, clamp, out)
+}
+
+// shearModes fills the shear-side modes for the chosen resistance rule.
+func shearModes(in *Inputs, clamp float64, out *Outcome) {
+	for m := BoltShear; m <= Slip; m++ {
+		out.Active[m] = false
+		out.Demand[m], out.Capacity[m] = 0, 0
+	}
+	v := in.ShearLoad
+	if !(v > 0) {
+		return
+	}
+	n := float64(in.Bolts)
+	planes := in.ShearPlanes
+	d, t, dh := in.Thread.D, in.PlateThickness, in.HoleDia
+	across := in.BoltsAcross
+	if across == 0 {
+		across = n
+	}
+	anet := (in.PlateWidth - across*dh) * t
+	e1, e2 := in.EdgeDistance, in.SideDistance
+	if e2 == 0 {
+		e2 = e1
+	}
+	switch in.ShearRule {
+	case YieldRule:
+		a := in.Thread.NominalArea
+		if in.ThreadsInShearPlane {
+			a = in.Thread.MinorArea
+		}
+		out.set(BoltShear, v, n*planes*a*invSqr3*in.Yield)
+		out.set(BoltBearing, v, n*d*t*in.Yield)
+		out.set(PlateBearing, v, n*d*t*in.PlateYield)
+		if in.PlateWidth > 0 {
+			out.set(NetSection, v, anet*in.PlateYield)
+		}
+		if e1 > 0 {
+			out.set(TearOut, v, n*2*(e1-d/2)*t*invSqr3*in.PlateYield)
+		}
+	case EN1993:
+		// EN 1993-1-8:2005 Table 3.4, γM2 = 1.
+		a, av := in.Thread.NominalArea, 0.6
+		if in.ThreadsInShearPlane {
+			a, av = in.Thread.StressArea, in.AlphaV
+			if av == 0 {
+				av = 0.5
+			}
+		}
+		out.set(BoltShear, v, n*planes*av*in.Tensile*a)
+		k1 := math.Min(2.8*e2/dh-1.7, 2.5)
+		ab := math.Min(math.Min(e1/(3*dh), in.Tensile/in.PlateTensile), 1)
+		out.set(PlateBearing, v, n*k1*ab*in.PlateTensile*d*t)
+		if in.PlateWidth > 0 {
+			out.set(NetSection, v, 0.9*anet*in.PlateTensile)
+		}
+	case AISC360:
+		// AISC 360-16 J3.6 (Fnv = 0.450 Fu threads included, 0.563 Fu excluded,
+		// Table J3.2 "threaded parts") and J3.10 (bearing 2.4·d·t·Fu, tear-out
+		// 1.2·lc·t·Fu); J4.1 net-section rupture Fu·An.
+		fnv := 0.563 * in.Tensile
+		if in.ThreadsInShearPlane {
+			fnv = 0.450 * in.Tensile
+		}
+		out.set(BoltShear, v, n*planes*fnv*in.Thread.NominalArea)
+		out.set(PlateBearing, v, n*2.4*d*t*in.PlateTensile)
+		if e1 > 0 {
+			out.set(TearOut, v, n*1.2*(e1-dh/2)*t*in.PlateTensile)
+		}
+		if in.PlateWidth > 0 {
+			out.set(NetSection, v, anet*in.PlateTensile)
+		}
+	}
+	if in.SlipFactor > 0 {
+		// Slip: V ≥ μ·m·ΣFclamp (EN 1993-1-8 §3.9 with ks = 1, γM3 = 1 and the
+		// actual clamp force in place of Fp,C).
+		out.set(Slip, v, in.SlipFactor*planes*clamp)
+	}
+}
+
+func (o *Outcome) set(m Mode, demand, capacity float64) {
+	o.Active[m] = true
+	o.Demand[m] = demand
+	o.Capacity[m] = capacity
+}
+
+// Evaluate computes stiffness, the bolt state and every mode of a joint whose
+// bolts are identical. It does not allocate.
+func Evaluate(in *Inputs, out *Outcome) {
+	s := ComputeStiffness(in)
+	var b [1]BoltResult
+	EvaluateBolt(in, &s, &b[0])
+	EvaluateJoint(in, &s, b[:], out)
+}
