@@ -227,7 +227,8 @@ func EvaluateBolt(in *Inputs, s *Stiffness, b *BoltResult) {
 	invalid = invalid || !(fm >= 0 && fm < math.Inf(1)) || !(in.Endurance > 0 && in.Proof > 0 && in.Yield > 0 && in.Tensile > 0)
 	as := th.StressArea
 	d0 := in.StressDiameter()
-	wp := math.Pi / 16 * d0 * d0 * d0
+	wpEl := math.Pi / 16 * d0 * d0 * d0 // elastic polar section modulus
+	wpPl := math.Pi / 12 * d0 * d0 * d0 // fully plastic polar section modulus
 
 	// Preload loss by embedding, FZ = fZ·kb·km/(kb + km) (VDI 2230-1), and relaxation.
 	fz := in.Embedding * s.Kb * s.Km / (s.Kb + s.Km)
@@ -243,8 +244,10 @@ func EvaluateBolt(in *Inputs, s *Stiffness, b *BoltResult) {
 	b.Clamp = fi - (1-phi)*pmax
 	b.Invalid = invalid
 
-	// Assembly: σred = √(σ² + 3τ²), σ = FM/As, τ = MG/Wp, Wp = π·d0³/16 (VDI 2230-1).
-	sig, tau := fm/as, mg/wp
+	// Assembly: σred = √(σ² + 3τ²) against Rp0.2, σ = FM/As, τ = MG/Wp with the
+	// fully plastic Wp = π·d0³/12 — the basis of VDI 2230-1's permissible
+	// assembly preload FMzul (its factor 3/2) at utilisation ν = 1.
+	sig, tau := fm/as, mg/wpPl
 	b.Demand[AssemblyYield] = math.Sqrt(sig*sig + 3*tau*tau)
 	b.Capacity[AssemblyYield] = in.Yield
 
@@ -252,9 +255,10 @@ func EvaluateBolt(in *Inputs, s *Stiffness, b *BoltResult) {
 	b.Demand[Proof] = fb
 	b.Capacity[Proof] = in.Proof * as
 
-	// Service: tension Fb/As with residual torsion kτ·τ (VDI 2230-1).
+	// Service: tension Fb/As with residual torsion kτ·MG/Wp, Wp = π·d0³/16
+	// elastic (VDI 2230-1 working-stress check).
 	sig = fb / as
-	tau *= in.TorsionFactor
+	tau = in.TorsionFactor * mg / wpEl
 	b.Demand[ServiceYield] = math.Sqrt(sig*sig + 3*tau*tau)
 	b.Capacity[ServiceYield] = in.Yield
 

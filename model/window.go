@@ -17,7 +17,7 @@ type Window struct {
 	// Upper limits: the largest residual preload below the proof load,
 	// Sp·As − Φ·Pmax (Shigley Eq. 8-28 with np = 1), and the largest assembly
 	// preload before von Mises yield in tightening, As·Sy/√(1 + 3k²) with
-	// k = (MG/FM)·As/Wp (VDI 2230-1 FMzul with ν = 1).
+	// k = (MG/FM)·As/Wp, Wp = π·d0³/12 (VDI 2230-1 FMzul with ν = 1).
 	ProofMax    float64
 	AssemblyMax float64
 	// BeneficialMax is the largest preload for which preload still improves
@@ -49,7 +49,7 @@ func PreloadWindow(in *Inputs) Window {
 		ratio = lead + thread*in.ThreadFriction
 	}
 	d0 := in.StressDiameter()
-	k := ratio * as / (math.Pi / 16 * d0 * d0 * d0)
+	k := ratio * as / (math.Pi / 12 * d0 * d0 * d0)
 	w.AssemblyMax = as * in.Yield / math.Sqrt(1+3*k*k)
 	w.BeneficialMax = (1 - s.C) * in.Tensile * as
 	w.Lower = math.Max(w.SeparationMin, w.SlipMin)

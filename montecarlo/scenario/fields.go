@@ -103,3 +103,19 @@ func FieldDim(path string) units.Dim {
 	f, _ := lookupField(path)
 	return f.dim
 }
+
+// FieldPtr returns the address of the input at path inside in, or nil if
+// there is no such input.
+func FieldPtr(in *model.Inputs, path string) *float64 {
+	f, ok := lookupField(path)
+	if !ok {
+		return nil
+	}
+	return f.ptr(in)
+}
+
+// FieldPerBolt reports whether each bolt draws its own value of the input.
+func FieldPerBolt(path string) bool {
+	f, _ := lookupField(path)
+	return f.perBolt
+}

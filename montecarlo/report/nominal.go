@@ -1,0 +1,198 @@
+package report
+
+import (
+	"encoding/json"
+	"fmt"
+	"io"
+	"math"
+	"text/tabwriter"
+
+	"boltrisk/model"
+	"boltrisk/model/units"
+	"boltrisk/montecarlo/scenario"
+)
+
+// NominalDoc is the deterministic result of a joint at its nominal inputs
+// (JSON contract of `boltrisk nominal --json`).
+type NominalDoc struct {
+	SchemaVersion   int                `json:"schema_version"`
+	Kind            string             `json:"kind"`
+	ToolVersion     string             `json:"tool_version"`
+	Scenario        ScenarioInfo       `json:"scenario"`
+	Inputs          []InputRow         `json:"inputs"`
+	BoltStiffness   float64            `json:"bolt_stiffness_N_per_mm"`
+	MemberStiffness float64            `json:"member_stiffness_N_per_mm"`
+	JointConstant   float64            `json:"joint_constant"`
+	LoadFactor      float64            `json:"load_factor"`
+	AssemblyPreload float64            `json:"assembly_preload_N"`
+	Preload         float64            `json:"preload_N"`
+	ThreadTorque    float64            `json:"thread_torque_N_mm"`
+	BoltForceMax    float64            `json:"bolt_force_max_N"`
+	ClampMin        float64            `json:"clamp_force_min_N"`
+	Window          WindowDoc          `json:"preload_window"`
+	Modes           map[string]ModeDoc `json:"modes"`
+	ModeOrder       []string           `json:"mode_order"`
+	Warnings        []string           `json:"warnings"`
+	Caution         string             `json:"caution"`
+}
+
+// WindowDoc is the preload window in N.
+type WindowDoc struct {
+	Lower         float64 `json:"lower_N"`
+	Upper         float64 `json:"upper_N"`
+	SeparationMin float64 `json:"separation_min_N"`
+	SlipMin       float64 `json:"slip_min_N"`
+	ProofMax      float64 `json:"proof_max_N"`
+	AssemblyMax   float64 `json:"assembly_max_N"`
+	BeneficialMax float64 `json:"goodman_beneficial_max_N"`
+	Contains      bool    `json:"contains_preload"`
+}
+
+// ModeDoc is one failure mode at nominal values. Demand and capacity are in
+// Unit ("MPa" or "N"); margin = capacity − demand; the mode fails when the
+// margin is ≤ 0.
+type ModeDoc struct {
+	Title        string  `json:"title"`
+	Demand       float64 `json:"demand"`
+	Capacity     float64 `json:"capacity"`
+	Unit         string  `json:"unit"`
+	SafetyFactor float64 `json:"safety_factor"`
+	Margin       float64 `json:"margin"`
+	Fails        bool    `json:"fails"`
+}
+
+// Nominal evaluates a scenario at its nominal inputs.
+func Nominal(s *scenario.Scenario, version string) NominalDoc {
+	in := s.Inputs()
+	var o model.Outcome
+	model.Evaluate(in, &o)
+	w := model.PreloadWindow(in)
+	doc := NominalDoc{
+		SchemaVersion: SchemaVersion, Kind: "nominal", ToolVersion: version,
+		Scenario: Info(s), Inputs: Inputs(s, units.SI),
+		BoltStiffness: o.Stiffness.Kb, MemberStiffness: o.Stiffness.Km,
+		JointConstant: o.Stiffness.C, LoadFactor: o.Stiffness.Phi,
+		AssemblyPreload: o.Bolt.AssemblyPreload, Preload: o.Bolt.Preload,
+		ThreadTorque: o.Bolt.ThreadTorque, BoltForceMax: o.Bolt.BoltForce, ClampMin: o.Bolt.Clamp,
+		Window: WindowDoc{Lower: w.Lower, Upper: w.Upper, SeparationMin: w.SeparationMin, SlipMin: w.SlipMin,
+			ProofMax: w.ProofMax, AssemblyMax: w.AssemblyMax, BeneficialMax: w.BeneficialMax,
+			Contains: o.Bolt.Preload >= w.Lower && o.Bolt.Preload <= w.Upper},
+		Modes:    map[string]ModeDoc{},
+		Warnings: []string{},
+		Caution:  Caution,
+	}
+	for m := model.Mode(0); m < model.NumModes; m++ {
+		if !o.Active[m] {
+			continue
+		}
+		u, _ := units.SI.Unit(ModeDim(m))
+		doc.Modes[m.Key()] = ModeDoc{Title: m.Title(), Demand: o.Demand[m], Capacity: o.Capacity[m], Unit: u,
+			SafetyFactor: o.SafetyFactor(m), Margin: o.Margin(m), Fails: o.Fails(m)}
+		doc.ModeOrder = append(doc.ModeOrder, m.Key())
+	}
+	for _, wr := range s.Warnings {
+		doc.Warnings = append(doc.Warnings, wr.String())
+	}
+	return doc
+}
+
+// WriteJSON writes any document as indented JSON.
+func WriteJSON(w io.Writer, doc any) error {
+	enc := json.NewEncoder(w)
+	enc.SetIndent("", "  ")
+	return enc.Encode(doc)
+}
+
+// title writes the heading of a report.
+func title(w io.Writer, verb string, s *scenario.Scenario) {
+	name := s.Name
+	if name == "" {
+		name = "(unnamed scenario)"
+	}
+	if s.Variant != "" {
+		name += " [" + s.Variant + "]"
+	}
+	fmt.Fprintf(w, "boltrisk %s — %s\n", verb, name)
+	if s.File != "" {
+		fmt.Fprintf(w, "scenario file %s (sha256 %.12s…)\n", s.File, s.SHA256)
+	}
+}
+
+// WriteNominal writes the nominal result as terminal text.
+func WriteNominal(w io.Writer, s *scenario.Scenario, doc NominalDoc, sys units.System) {
+	title(w, "nominal", s)
+	fmt.Fprintln(w, "\nInputs")
+	writeRows(w, Inputs(s, sys))
+	writeNominalBody(w, doc, sys)
+	writeWarnings(w, doc.Warnings)
+	WriteCaution(w)
+}
+
+func writeNominalBody(w io.Writer, doc NominalDoc, sys units.System) {
+	F := func(v float64) string { return sys.Format(v, units.Force) }
+	fmt.Fprintln(w, "\nStiffness and preload")
+	tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', 0)
+	fmt.Fprintf(tw, "  bolt stiffness kb\t%s\n", sys.Format(doc.BoltStiffness, units.Stiffness))
+	fmt.Fprintf(tw, "  member stiffness km\t%s\n", sys.Format(doc.MemberStiffness, units.Stiffness))
+	fmt.Fprintf(tw, "  joint constant C\t%.4f", doc.JointConstant)
+	if math.Abs(doc.LoadFactor-doc.JointConstant) > 1e-12 {
+		fmt.Fprintf(tw, "  (load factor Φ = n·C = %.4f)", doc.LoadFactor)
+	}
+	fmt.Fprintln(tw)
+	fmt.Fprintf(tw, "  assembly preload FM\t%s\n", F(doc.AssemblyPreload))
+	fmt.Fprintf(tw, "  residual preload Fi\t%s\n", F(doc.Preload))
+	if doc.ThreadTorque > 0 {
+		fmt.Fprintf(tw, "  thread torque MG\t%s\n", sys.Format(doc.ThreadTorque, units.Torque))
+	}
+	fmt.Fprintf(tw, "  largest bolt force\t%s\n", F(doc.BoltForceMax))
+	fmt.Fprintf(tw, "  least clamp force\t%s\n", F(doc.ClampMin))
+	tw.Flush()
+	wd := doc.Window
+	fmt.Fprintln(w, "\nPreload window (residual preload)")
+	tw = tabwriter.NewWriter(w, 0, 0, 2, ' ', 0)
+	fmt.Fprintf(tw, "  least, against separation\t%s\n", F(wd.SeparationMin))
+	if wd.SlipMin > 0 {
+		fmt.Fprintf(tw, "  least, against slip\t%s\n", F(wd.SlipMin))
+	}
+	fmt.Fprintf(tw, "  greatest, below proof load\t%s\n", F(wd.ProofMax))
+	fmt.Fprintf(tw, "  greatest, assembly yield\t%s\t(assembly preload)\n", F(wd.AssemblyMax))
+	fmt.Fprintf(tw, "  preload still helps Goodman up to\t%s\t(Shigley Eq. 8-50)\n", F(wd.BeneficialMax))
+	verdict := "inside"
+	if !wd.Contains {
+		verdict = "OUTSIDE"
+	}
+	fmt.Fprintf(tw, "  window\t%s … %s\tnominal preload %s is %s\n", F(wd.Lower), F(wd.Upper), F(doc.Preload), verdict)
+	tw.Flush()
+
+	fmt.Fprintln(w, "\nFailure modes (nominal)")
+	tw = tabwriter.NewWriter(w, 0, 0, 2, ' ', tabwriter.AlignRight)
+	fmt.Fprintln(tw, "  mode\tdemand\tcapacity\tsafety factor\tresult\t")
+	for _, k := range doc.ModeOrder {
+		md := doc.Modes[k]
+		m, _ := model.ParseMode(k)
+		dim := ModeDim(m)
+		res := "ok"
+		if md.Fails {
+			res = "FAILS"
+		}
+		fmt.Fprintf(tw, "  %s\t%s\t%s\t%s\t%s\t\n", k, sys.Format(md.Demand, dim), sys.Format(md.Capacity, dim), fmtSF(md.SafetyFactor), res)
+	}
+	tw.Flush()
+}
+
+func fmtSF(v float64) string {
+	if math.IsInf(v, 1) || v > 1e6 {
+		return "> 1e6"
+	}
+	return fmt.Sprintf("%.3f", v)
+}
+
+func writeWarnings(w io.Writer, ws []string) {
+	if len(ws) == 0 {
+		return
+	}
+	fmt.Fprintln(w, "\nWarnings")
+	for _, s := range ws {
+		fmt.Fprintln(w, "  - "+s)
+	}
+}
