@@ -69,6 +69,7 @@ type Inputs struct {
 	Yield       float64 // yield strength Sy, MPa
 	Tensile     float64 // tensile strength Sut, MPa
 	AlphaV      float64 // EN 1993-1-8 αv for threads in the shear plane (0: 0.5)
+	FubNominal  float64 // EN 1993-1-8 Table 3.1 nominal fub, MPa (0: Tensile)
 	BoltModulus float64 // MPa
 
 	ShankInGrip float64 // unthreaded shank length inside the grip ld, mm
@@ -403,6 +404,10 @@ func shearModes(in *Inputs, clamp float64, out *Outcome) {
 		}
 	case EN1993:
 		// EN 1993-1-8:2005 Table 3.4, γM2 = 1.
+		fub := in.FubNominal
+		if fub == 0 {
+			fub = in.Tensile
+		}
 		a, av := in.Thread.NominalArea, 0.6
 		if in.ThreadsInShearPlane {
 			a, av = in.Thread.StressArea, in.AlphaV
@@ -410,9 +415,9 @@ func shearModes(in *Inputs, clamp float64, out *Outcome) {
 				av = 0.5
 			}
 		}
-		out.set(BoltShear, v, n*planes*av*in.Tensile*a)
+		out.set(BoltShear, v, n*planes*av*fub*a)
 		k1 := math.Min(2.8*e2/dh-1.7, 2.5)
-		ab := math.Min(math.Min(e1/(3*dh), in.Tensile/in.PlateTensile), 1)
+		ab := math.Min(math.Min(e1/(3*dh), fub/in.PlateTensile), 1)
 		out.set(PlateBearing, v, n*k1*ab*in.PlateTensile*d*t)
 		if in.PlateWidth > 0 {
 			out.set(NetSection, v, 0.9*anet*in.PlateTensile)

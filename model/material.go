@@ -21,6 +21,8 @@ type PropertyClass struct {
 	MinD, MaxD float64
 	// EN 1993-1-8 Table 3.4 factor αv for threads in the shear plane (0 where the code gives none).
 	AlphaV float64
+	// Nominal ultimate strength fub of EN 1993-1-8 Table 3.1 (0 where the code gives none).
+	NominalTensile float64
 	Note   string
 }
 
@@ -33,17 +35,19 @@ type PropertyClass struct {
 //     reproductions); these classes have no proof load, so Sp = Rp0.2 (common practice).
 //   - Endurance: Shigley Table 8-17 p.445 (fully corrected, rolled threads).
 //   - αv: EN 1993-1-8:2005 Table 3.4 (0.6 for 4.6, 5.6, 8.8; 0.5 for 4.8, 5.8, 6.8, 10.9).
+//   - fub: EN 1993-1-8:2005 Table 3.1 nominal values (4.6, 5.6, 8.8, 10.9 secondary
+//     sources; 4.8, 5.8, 6.8 from memory), used by the en1993 shear rule.
 var propertyClasses = []PropertyClass{
-	{Name: "4.6", Standard: "ISO 898-1", Proof: 225, Yield: 240, Tensile: 400, AlphaV: 0.6},
-	{Name: "4.8", Standard: "ISO 898-1", Proof: 310, Yield: 340, Tensile: 420, AlphaV: 0.5},
-	{Name: "5.6", Standard: "ISO 898-1", Proof: 280, Yield: 300, Tensile: 500, AlphaV: 0.6},
-	{Name: "5.8", Standard: "ISO 898-1", Proof: 380, Yield: 420, Tensile: 520, AlphaV: 0.5},
-	{Name: "6.8", Standard: "ISO 898-1", Proof: 440, Yield: 480, Tensile: 600, AlphaV: 0.5},
-	{Name: "8.8", Standard: "ISO 898-1", Proof: 580, Yield: 640, Tensile: 800, Endurance: 129, MaxD: 16, AlphaV: 0.6,
+	{Name: "4.6", Standard: "ISO 898-1", Proof: 225, Yield: 240, Tensile: 400, NominalTensile: 400, AlphaV: 0.6},
+	{Name: "4.8", Standard: "ISO 898-1", Proof: 310, Yield: 340, Tensile: 420, NominalTensile: 400, AlphaV: 0.5},
+	{Name: "5.6", Standard: "ISO 898-1", Proof: 280, Yield: 300, Tensile: 500, NominalTensile: 500, AlphaV: 0.6},
+	{Name: "5.8", Standard: "ISO 898-1", Proof: 380, Yield: 420, Tensile: 520, NominalTensile: 500, AlphaV: 0.5},
+	{Name: "6.8", Standard: "ISO 898-1", Proof: 440, Yield: 480, Tensile: 600, NominalTensile: 600, AlphaV: 0.5},
+	{Name: "8.8", Standard: "ISO 898-1", Proof: 580, Yield: 640, Tensile: 800, Endurance: 129, MaxD: 16, NominalTensile: 800, AlphaV: 0.6,
 		Note: "Shigley Table 8-17 gives the endurance strength for M16–M36 only; used below M16 as a conservative value"},
-	{Name: "8.8", Standard: "ISO 898-1", Proof: 600, Yield: 660, Tensile: 830, Endurance: 129, MinD: 16.0001, AlphaV: 0.6},
+	{Name: "8.8", Standard: "ISO 898-1", Proof: 600, Yield: 660, Tensile: 830, Endurance: 129, MinD: 16.0001, NominalTensile: 800, AlphaV: 0.6},
 	{Name: "9.8", Standard: "ISO 898-1", Proof: 650, Yield: 720, Tensile: 900, Endurance: 140, MaxD: 16},
-	{Name: "10.9", Standard: "ISO 898-1", Proof: 830, Yield: 940, Tensile: 1040, Endurance: 162, AlphaV: 0.5},
+	{Name: "10.9", Standard: "ISO 898-1", Proof: 830, Yield: 940, Tensile: 1040, Endurance: 162, NominalTensile: 1000, AlphaV: 0.5},
 	{Name: "12.9", Standard: "ISO 898-1", Proof: 970, Yield: 1100, Tensile: 1220, Endurance: 190},
 	{Name: "SAE 1", Standard: "SAE J429", Proof: 33 * ksi, Yield: 36 * ksi, Tensile: 60 * ksi},
 	{Name: "SAE 2", Standard: "SAE J429", Proof: 55 * ksi, Yield: 57 * ksi, Tensile: 74 * ksi, MaxD: 0.75 * inch},

@@ -148,7 +148,7 @@ func split(s string) (num, unit string) {
 		}
 		break
 	}
-	if i == 0 {
+	if !strings.ContainsAny(s[:i], "0123456789") {
 		// Words such as NaN or Inf: keep the whole token as the number.
 		f := strings.Fields(s)
 		return f[0], strings.TrimSpace(strings.TrimPrefix(s, f[0]))

@@ -103,6 +103,7 @@ func (p *parser) buildOne(r rawDoc) (*Scenario, error) {
 		s.ClassName = c.Name
 		stainless = c.Standard == "ISO 3506-1"
 		in.AlphaV = c.AlphaV
+		in.FubNominal = c.NominalTensile
 		if !given["bolt.proof_strength"] {
 			in.Proof = c.Proof
 		}
