@@ -143,6 +143,7 @@ type Outcome struct {
 	Active   [NumModes]bool
 	ClampSum float64 // sum over bolts of the residual clamp force (≥ 0 each), N
 	Invalid  bool
+	shear    bool // shear-side modes were set by the last evaluation
 }
 
 // Margin returns capacity − demand of mode m; the mode fails when it is ≤ 0.
@@ -168,7 +169,7 @@ func (in *Inputs) StressDiameter() float64 { return (in.Thread.PitchDia + in.Thr
 // 0.577·d2 and the head-friction lever DKm/2 = (dW + dh)/4 of the
 // torque–preload relation (VDI 2230-1 R13; ISO 16047 definitions).
 func (in *Inputs) torqueTerms() (lead, thread, head float64) {
-	return in.Thread.Pitch / twoPi, invSqr3 * in.Thread.PitchDia, (in.BearingDia + in.HoleDia) / 4
+	return in.Thread.Pitch * (1 / twoPi), invSqr3 * in.Thread.PitchDia, (in.BearingDia + in.HoleDia) * 0.25
 }
 
 // EquivalentFriction returns the single friction coefficient μ (thread and
@@ -201,23 +202,29 @@ func (in *Inputs) TorqueFor(fm float64) float64 {
 }
 
 // EvaluateBolt computes the tightening and tension-side modes of one bolt.
-// It does not allocate.
-func EvaluateBolt(in *Inputs, s *Stiffness, b *BoltResult) {
+// Modes outside set are left as they were (the Monte Carlo driver skips the
+// modes it does not tally); the thread torque is computed only when a yield
+// mode is in set. It does not allocate.
+func EvaluateBolt(in *Inputs, s *Stiffness, set ModeSet, b *BoltResult) {
 	th := &in.Thread
-	lead, thread, head := in.torqueTerms()
+	torsion := set&(1<<AssemblyYield|1<<ServiceYield) != 0
 	var fm, mg float64
 	invalid := false
 	switch in.Method {
 	case NutFactorMethod:
-		k := in.NutFactor
-		fm = in.Torque / (k * th.D)
-		mu := (k*th.D - lead) / (thread + head)
-		if mu < 0 {
-			mu = 0
+		kd := in.NutFactor * th.D
+		fm = in.Torque / kd
+		if torsion {
+			lead, thread, head := in.torqueTerms()
+			mu := (kd - lead) / (thread + head)
+			if mu < 0 {
+				mu = 0
+			}
+			mg = fm * (lead + thread*mu)
 		}
-		mg = fm * (lead + thread*mu)
-		invalid = !(k > 0)
+		invalid = !(in.NutFactor > 0)
 	case FrictionMethod:
+		lead, thread, head := in.torqueTerms()
 		mt := lead + thread*in.ThreadFriction
 		fm = in.Torque / (mt + head*in.HeadFriction)
 		mg = fm * mt
@@ -226,14 +233,9 @@ func EvaluateBolt(in *Inputs, s *Stiffness, b *BoltResult) {
 		fm = in.Preload
 	}
 	invalid = invalid || !(fm >= 0 && fm < math.Inf(1)) || !(in.Endurance > 0 && in.Proof > 0 && in.Yield > 0 && in.Tensile > 0)
-	as := th.StressArea
-	d0 := in.StressDiameter()
-	wpEl := math.Pi / 16 * d0 * d0 * d0 // elastic polar section modulus
-	wpPl := math.Pi / 12 * d0 * d0 * d0 // fully plastic polar section modulus
 
 	// Preload loss by embedding, FZ = fZ·kb·km/(kb + km) (VDI 2230-1), and relaxation.
-	fz := in.Embedding * s.Kb * s.Km / (s.Kb + s.Km)
-	fi := fm*(1-in.Relaxation) - fz
+	fi := fm*(1-in.Relaxation) - in.Embedding*s.kz
 	if fi < 0 {
 		fi = 0
 	}
@@ -245,33 +247,38 @@ func EvaluateBolt(in *Inputs, s *Stiffness, b *BoltResult) {
 	b.Clamp = fi - (1-phi)*pmax
 	b.Invalid = invalid
 
-	// Assembly: σred = √(σ² + 3τ²) against Rp0.2, σ = FM/As, τ = MG/Wp with the
-	// fully plastic Wp = π·d0³/12 — the basis of VDI 2230-1's permissible
-	// assembly preload FMzul (its factor 3/2) at utilisation ν = 1.
-	sig, tau := fm/as, mg/wpPl
-	b.Demand[AssemblyYield] = math.Sqrt(sig*sig + 3*tau*tau)
-	b.Capacity[AssemblyYield] = in.Yield
+	if torsion {
+		d0 := in.StressDiameter()
+		d03 := d0 * d0 * d0
+		// Assembly: σred = √(σ² + 3τ²) against Rp0.2, σ = FM/As, τ = MG/Wp with the
+		// fully plastic Wp = π·d0³/12 — the basis of VDI 2230-1's permissible
+		// assembly preload FMzul (its factor 3/2) at utilisation ν = 1.
+		sig, tau := fm*s.invAs, mg*(12/math.Pi)/d03
+		b.Demand[AssemblyYield] = math.Sqrt(sig*sig + 3*tau*tau)
+		b.Capacity[AssemblyYield] = in.Yield
+		// Service: tension Fb/As with residual torsion kτ·MG/Wp, Wp = π·d0³/16
+		// elastic (VDI 2230-1 working-stress check).
+		sig = fb * s.invAs
+		tau = in.TorsionFactor * mg * (16 / math.Pi) / d03
+		b.Demand[ServiceYield] = math.Sqrt(sig*sig + 3*tau*tau)
+		b.Capacity[ServiceYield] = in.Yield
+	}
 
 	// Proof: Fb = Fi + Φ·Pmax against Sp·As (Shigley Eq. 8-28).
 	b.Demand[Proof] = fb
-	b.Capacity[Proof] = in.Proof * as
-
-	// Service: tension Fb/As with residual torsion kτ·MG/Wp, Wp = π·d0³/16
-	// elastic (VDI 2230-1 working-stress check).
-	sig = fb / as
-	tau = in.TorsionFactor * mg / wpEl
-	b.Demand[ServiceYield] = math.Sqrt(sig*sig + 3*tau*tau)
-	b.Capacity[ServiceYield] = in.Yield
+	b.Capacity[Proof] = in.Proof * th.StressArea
 
 	// Separation: P ≥ Fi/(1 − Φ) (Shigley Eq. 8-30).
 	b.Demand[Separation] = pmax
-	b.Capacity[Separation] = fi / (1 - phi)
+	b.Capacity[Separation] = fi * s.sepF
 
 	// Fatigue on the load line through the preload stress σi.
+	if !set.Has(Fatigue) {
+		return
+	}
 	if pmax > pmin {
-		sa := phi * (pmax - pmin) / (2 * as)
-		b.Demand[Fatigue] = sa
-		b.Capacity[Fatigue] = StrengthAmplitude(in.Criterion, in.Endurance, in.Tensile, in.Proof, fi/as, (pmax+pmin)/(pmax-pmin))
+		b.Demand[Fatigue] = phi * (pmax - pmin) * 0.5 * s.invAs
+		b.Capacity[Fatigue] = StrengthAmplitude(in.Criterion, in.Endurance, in.Tensile, in.Proof, fi*s.invAs, (pmax+pmin)/(pmax-pmin))
 	} else {
 		b.Demand[Fatigue], b.Capacity[Fatigue] = 0, 0
 	}
@@ -333,8 +340,10 @@ func quadRoot(a, b, c float64) float64 {
 // A bolt mode fails for the joint when any bolt fails it; the joint's demand
 // and capacity are those of the bolt with the smallest safety factor. Slip
 // uses the summed residual clamp force of all bolts.
+//
+// Outcome.Bolt and Outcome.Stiffness are left alone (Evaluate fills them);
+// the Monte Carlo driver reads the bolts directly.
 func EvaluateJoint(in *Inputs, s *Stiffness, bolts []BoltResult, out *Outcome) {
-	out.Stiffness = *s
 	out.Invalid = false
 	clamp := 0.0
 	for i := range bolts {
@@ -345,8 +354,14 @@ func EvaluateJoint(in *Inputs, s *Stiffness, bolts []BoltResult, out *Outcome) {
 	}
 	clamp *= float64(in.Bolts) / float64(len(bolts))
 	out.ClampSum = clamp
-	out.Bolt = bolts[0]
-	for m := AssemblyYield; m <= Fatigue; m++ {
+	if len(bolts) == 1 {
+		out.Demand[AssemblyYield], out.Capacity[AssemblyYield] = bolts[0].Demand[AssemblyYield], bolts[0].Capacity[AssemblyYield]
+		out.Demand[Proof], out.Capacity[Proof] = bolts[0].Demand[Proof], bolts[0].Capacity[Proof]
+		out.Demand[ServiceYield], out.Capacity[ServiceYield] = bolts[0].Demand[ServiceYield], bolts[0].Capacity[ServiceYield]
+		out.Demand[Separation], out.Capacity[Separation] = bolts[0].Demand[Separation], bolts[0].Capacity[Separation]
+		out.Demand[Fatigue], out.Capacity[Fatigue] = bolts[0].Demand[Fatigue], bolts[0].Capacity[Fatigue]
+	}
+	for m := AssemblyYield; len(bolts) > 1 && m <= Fatigue; m++ {
 		w := 0
 		for i := 1; i < len(bolts); i++ {
 			// bolt i is worse when cap_i/dem_i < cap_w/dem_w (demands are positive).
@@ -367,13 +382,20 @@ func EvaluateJoint(in *Inputs, s *Stiffness, bolts []BoltResult, out *Outcome) {
 
 // shearModes fills the shear-side modes for the chosen resistance rule.
 func shearModes(in *Inputs, clamp float64, out *Outcome) {
-	for m := BoltShear; m <= Slip; m++ {
-		out.Active[m] = false
-		out.Demand[m], out.Capacity[m] = 0, 0
-	}
 	v := in.ShearLoad
 	if !(v > 0) {
+		if out.shear {
+			for m := BoltShear; m <= Slip; m++ {
+				out.Active[m] = false
+				out.Demand[m], out.Capacity[m] = 0, 0
+			}
+			out.shear = false
+		}
 		return
+	}
+	out.shear = true
+	for m := BoltShear; m <= Slip; m++ {
+		out.Active[m] = false
 	}
 	n := float64(in.Bolts)
 	planes := in.ShearPlanes
@@ -457,6 +479,8 @@ func (o *Outcome) set(m Mode, demand, capacity float64) {
 func Evaluate(in *Inputs, out *Outcome) {
 	s := ComputeStiffness(in)
 	var b [1]BoltResult
-	EvaluateBolt(in, &s, &b[0])
+	EvaluateBolt(in, &s, AllModes, &b[0])
 	EvaluateJoint(in, &s, b[:], out)
+	out.Stiffness = s
+	out.Bolt = b[0]
 }

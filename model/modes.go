@@ -44,6 +44,24 @@ func (m Mode) String() string { return m.Key() }
 // the others are decided once for the whole joint (shear side).
 func (m Mode) IsBolt() bool { return m <= Fatigue }
 
+// ModeSet is a set of modes, one bit per mode.
+type ModeSet uint16
+
+// AllModes holds every mode.
+const AllModes ModeSet = 1<<NumModes - 1
+
+// Has reports whether m is in the set.
+func (s ModeSet) Has(m Mode) bool { return s&(1<<m) != 0 }
+
+// SetOf returns the set holding the given modes.
+func SetOf(modes ...Mode) ModeSet {
+	var s ModeSet
+	for _, m := range modes {
+		s |= 1 << m
+	}
+	return s
+}
+
 // ParseMode returns the mode with the given key.
 func ParseMode(key string) (Mode, bool) {
 	for m, k := range modeKeys {

@@ -111,6 +111,11 @@ type Stiffness struct {
 	Km  float64 // member stiffness, N/mm
 	C   float64 // joint constant kb/(kb + km)
 	Phi float64 // load factor Φ = n·C, with n the load-introduction factor
+
+	// Derived once per joint so that EvaluateBolt multiplies instead of divides.
+	kz    float64 // kb·km/(kb + km): preload lost per unit of embedding
+	sepF  float64 // 1/(1 − Φ)
+	invAs float64 // 1/As
 }
 
 // ComputeStiffness returns bolt and member stiffness and the joint constant
@@ -127,5 +132,6 @@ func ComputeStiffness(in *Inputs) Stiffness {
 	if n == 0 {
 		n = 1
 	}
-	return Stiffness{Kb: kb, Km: km, C: c, Phi: n * c}
+	return Stiffness{Kb: kb, Km: km, C: c, Phi: n * c,
+		kz: kb * km / (kb + km), sepF: 1 / (1 - n*c), invAs: 1 / in.Thread.StressArea}
 }

@@ -1,0 +1,543 @@
+package montecarlo
+
+import (
+	"context"
+	"errors"
+	"fmt"
+	"math"
+	"math/rand/v2"
+	"runtime"
+	"slices"
+	"sync"
+	"sync/atomic"
+	"time"
+
+	"boltrisk/model"
+)
+
+// ChunkSize is the number of samples drawn from one random stream. It is part
+// of the reproducibility contract: changing it changes every seeded result.
+const ChunkSize = 16384
+
+// roundChunks is the number of chunks between two checks of the stopping
+// rule (about 1 M samples); fixed so that where a run stops does not depend
+// on the worker count.
+const roundChunks = 64
+
+// histBins is the resolution of the histograms behind the percentiles.
+const histBins = 400
+
+// MaxSamples is the largest sample budget accepted.
+const MaxSamples = 1e11
+
+// Settings control a run. Zero values take the documented defaults.
+type Settings struct {
+	Samples    int64   // sample budget (required, ≥ 1)
+	Seed       uint64  // seed of every random stream
+	Workers    int     // goroutines; 0: runtime.GOMAXPROCS(0)
+	Confidence float64 // two-sided confidence of the intervals; 0: 0.95
+	// Target, if > 0, stops the run once every mode that has failed (and the
+	// any-mode probability) has a relative interval half-width ≤ Target; the
+	// check runs every 16 chunks. Samples stays the cap.
+	Target float64
+	// Progress, if set, is called after each chunk with the samples done and
+	// the budget. It runs on a worker goroutine and must be quick and safe
+	// for concurrent use.
+	Progress func(done, total int64)
+	// Modes, if set, restricts the tally to these modes (each must be active
+	// at nominal values); nil: every active mode.
+	Modes []model.Mode
+	// Ranges fixes the histogram ranges instead of a pilot run; studies use it
+	// so that every step bins alike. Nil: pilot run.
+	Ranges *Ranges
+}
+
+// Validate checks the settings.
+func (s *Settings) Validate() error {
+	if s.Samples < 1 || s.Samples > MaxSamples {
+		return fmt.Errorf("samples must lie within 1 … %.0e, got %d", float64(MaxSamples), s.Samples)
+	}
+	if s.Confidence != 0 && !(s.Confidence > 0 && s.Confidence < 1) {
+		return fmt.Errorf("confidence must lie strictly between 0 and 1, got %g", s.Confidence)
+	}
+	if s.Target < 0 || s.Target >= 1 || math.IsNaN(s.Target) {
+		return fmt.Errorf("target relative half-width must lie within (0, 1), got %g", s.Target)
+	}
+	if s.Workers < 0 || s.Workers > 1024 {
+		return fmt.Errorf("workers must lie within 1 … 1024 (0 for all cores), got %d", s.Workers)
+	}
+	return nil
+}
+
+// Quantity names the tracked outputs with histograms.
+type Quantity int
+
+const (
+	QPreload   Quantity = iota // residual preload of each bolt, N
+	QBoltForce                 // largest bolt force of each bolt, N
+	QClamp                     // residual clamp force under Pmax of each bolt, N
+	numQuantities
+)
+
+var quantityKeys = [numQuantities]string{"preload_N", "bolt_force_N", "clamp_force_N"}
+
+// Key returns the JSON key of the quantity.
+func (q Quantity) Key() string { return quantityKeys[q] }
+
+// Ranges are histogram ranges: one per tracked quantity and one per mode's
+// safety factor.
+type Ranges struct {
+	Q  [numQuantities][2]float64
+	SF [model.NumModes][2]float64
+}
+
+// ModeResult is the estimate for one failure mode.
+type ModeResult struct {
+	Mode      model.Mode
+	Interval  Interval
+	NominalSF float64   // deterministic safety factor at nominal inputs
+	SF        Histogram // safety factor of the joint, per sample
+	// BoltFailures counts bolt evaluations failing the mode (bolt modes of
+	// joints whose bolts draw their own scatter); BoltSamples their number.
+	BoltFailures, BoltSamples int64
+}
+
+// Result is the outcome of a run.
+type Result struct {
+	Samples    int64 // valid samples evaluated
+	Invalid    int64 // samples outside the model's domain (counted, not used)
+	Seed       uint64
+	Workers    int
+	Confidence float64
+	Partial    bool // stopped early (interrupted) before the budget or target
+	Converged  bool // the target was met
+	Elapsed    time.Duration
+
+	Nominal model.Outcome
+	Modes   []ModeResult // modes active at nominal values or that failed, report order
+	Any     Interval     // any reported mode
+	Q       [numQuantities]Histogram
+	// Mean and standard deviation of the residual preload over all bolts, N.
+	PreloadMean, PreloadSD float64
+	NBolts  int // bolt evaluations per sample
+}
+
+// Mode returns the result of mode m, if reported.
+func (r *Result) Mode(m model.Mode) (*ModeResult, bool) {
+	for i := range r.Modes {
+		if r.Modes[i].Mode == m {
+			return &r.Modes[i], true
+		}
+	}
+	return nil, false
+}
+
+// tally is the state a worker accumulates; all counts are integers, so
+// summing tallies in any order gives identical results.
+type tally struct {
+	_                     [64]byte // keep other workers' data off these cache lines
+	samples, invalid, any int64
+	fail                  [model.NumModes]int64
+	boltFail              [model.NumModes]int64
+	boltSamples           int64
+	sf                    [model.NumModes]Histogram
+	q                     [numQuantities]Histogram
+	_                     [64]byte
+}
+
+func newTally(r *Ranges) *tally {
+	t := &tally{}
+	for m := range t.sf {
+		t.sf[m] = NewHistogram(r.SF[m][0], r.SF[m][1], histBins)
+	}
+	for q := range t.q {
+		t.q[q] = NewHistogram(r.Q[q][0], r.Q[q][1], histBins)
+	}
+	return t
+}
+
+func (t *tally) merge(o *tally) {
+	t.samples += o.samples
+	t.invalid += o.invalid
+	t.any += o.any
+	t.boltSamples += o.boltSamples
+	for m := range t.fail {
+		t.fail[m] += o.fail[m]
+		t.boltFail[m] += o.boltFail[m]
+		t.sf[m].Merge(&o.sf[m])
+	}
+	for q := range t.q {
+		t.q[q].Merge(&o.q[q])
+	}
+}
+
+// moments are floating sums, kept per chunk and merged in chunk order so that
+// the result does not depend on the worker count.
+type moments struct {
+	n, sum, ssq float64 // of the residual preload
+}
+
+// worker holds one goroutine's copy of the inputs and its random stream.
+type worker struct {
+	pl      *plan
+	in      model.Inputs
+	shared  group
+	perBolt group
+	stiff   model.Stiffness
+	bolts   []model.BoltResult
+	boltBuf [4]model.BoltResult // backing store for small joints, inside the worker
+	out     model.Outcome
+	// The stream state lives inside the worker: a separately allocated 16-byte
+	// PCG shares a cache line with another worker's and halves the speed.
+	pcg rand.PCG
+	rng *rand.Rand
+	_   [64]byte
+	modes   []model.Mode // reported modes
+	set     model.ModeSet
+	t       *tally
+}
+
+func newWorker(p *Problem, pl *plan, modes []model.Mode, r *Ranges) (*worker, error) {
+	w := &worker{pl: pl, in: pl.base, modes: modes, set: model.SetOf(modes...)}
+	if modes == nil {
+		w.set = model.AllModes
+	}
+	var err error
+	if w.shared, err = pl.newGroup(p, pl.shared, pl.sharedCorr, &w.in); err != nil {
+		return nil, err
+	}
+	if w.perBolt, err = pl.newGroup(p, pl.perBolt, pl.perBoltCorr, &w.in); err != nil {
+		return nil, err
+	}
+	w.stiff = model.ComputeStiffness(&w.in)
+	if pl.nBolts <= len(w.boltBuf) {
+		w.bolts = w.boltBuf[:pl.nBolts]
+	} else {
+		w.bolts = make([]model.BoltResult, pl.nBolts, pl.nBolts+2) // spare room: no shared line
+	}
+	w.rng = rand.New(&w.pcg)
+	if r != nil {
+		w.t = newTally(r)
+	}
+	return w, nil
+}
+
+// streamSeed hashes (seed, chunk) into the two PCG seed words with SplitMix64
+// (Steele, Lea & Flood, OOPSLA 2014), so that neighbouring chunks and seeds
+// give unrelated streams.
+func streamSeed(seed, chunk uint64) (uint64, uint64) {
+	a := splitmix(seed ^ splitmix(chunk+0x632be59bd9b4e019))
+	return a, splitmix(a ^ 0xd1b54a32d192ed03)
+}
+
+func splitmix(x uint64) uint64 {
+	x += 0x9e3779b97f4a7c15
+	x = (x ^ (x >> 30)) * 0xbf58476d1ce4e5b9
+	x = (x ^ (x >> 27)) * 0x94d049bb133111eb
+	return x ^ (x >> 31)
+}
+
+// sample draws and evaluates one sample into w.out. The loop allocates nothing
+// and calls no interface other than the random source.
+func (w *worker) sample() {
+	w.shared.draw(w.rng)
+	if w.pl.stiffVaries {
+		w.stiff = model.ComputeStiffness(&w.in)
+	}
+	for b := range w.bolts {
+		w.perBolt.draw(w.rng)
+		model.EvaluateBolt(&w.in, &w.stiff, w.set, &w.bolts[b])
+	}
+	model.EvaluateJoint(&w.in, &w.stiff, w.bolts, &w.out)
+}
+
+// runChunk evaluates n samples of chunk c into the worker's tally and
+// returns the chunk's floating sums.
+func (w *worker) runChunk(seed uint64, c int64, n int64) moments {
+	var mom moments
+	w.pcg.Seed(streamSeed(seed, uint64(c)))
+	t := w.t
+	o := &w.out
+	for range n {
+		w.sample()
+		if o.Invalid {
+			t.invalid++
+			continue
+		}
+		t.samples++
+		failed := false
+		for _, m := range w.modes {
+			if !o.Active[m] {
+				continue
+			}
+			c, d := o.Capacity[m], o.Demand[m]
+			if c <= d {
+				t.fail[m]++
+				failed = true
+			}
+			t.sf[m].Add(c / d)
+		}
+		if failed {
+			t.any++
+		}
+		for b := range w.bolts {
+			br := &w.bolts[b]
+			t.q[QPreload].Add(br.Preload)
+			t.q[QBoltForce].Add(br.BoltForce)
+			t.q[QClamp].Add(br.Clamp)
+			mom.n++
+			mom.sum += br.Preload
+			mom.ssq += br.Preload * br.Preload
+		}
+		if len(w.bolts) > 1 {
+			t.boltSamples += int64(len(w.bolts))
+			for _, m := range w.modes {
+				if m > model.Fatigue || !o.Active[m] {
+					continue
+				}
+				for b := range w.bolts {
+					if w.bolts[b].Capacity[m] <= w.bolts[b].Demand[m] {
+						t.boltFail[m]++
+					}
+				}
+			}
+		}
+	}
+	return mom
+}
+
+// ErrInterrupted wraps the context error of an interrupted run; the result
+// returned with it is valid and marked Partial.
+var ErrInterrupted = errors.New("montecarlo: run interrupted")
+
+// Run samples the problem and estimates the failure probabilities. An
+// interrupted run (ctx cancelled) returns the partial result together with an
+// error wrapping ErrInterrupted.
+func Run(ctx context.Context, p *Problem, s Settings) (*Result, error) {
+	if err := s.Validate(); err != nil {
+		return nil, err
+	}
+	if s.Confidence == 0 {
+		s.Confidence = 0.95
+	}
+	if s.Workers == 0 {
+		s.Workers = runtime.GOMAXPROCS(0)
+	}
+	pl, err := newPlan(p)
+	if err != nil {
+		return nil, err
+	}
+	start := time.Now()
+	res := &Result{Seed: s.Seed, Workers: s.Workers, Confidence: s.Confidence, NBolts: pl.nBolts}
+	model.Evaluate(&pl.base, &res.Nominal)
+	modes := reportedModes(&res.Nominal)
+	if s.Modes != nil {
+		for _, m := range s.Modes {
+			if m < 0 || m >= model.NumModes || !res.Nominal.Active[m] {
+				return nil, fmt.Errorf("mode %v is not active for this joint", m)
+			}
+		}
+		modes = append([]model.Mode(nil), s.Modes...)
+		slices.Sort(modes)
+		modes = slices.Compact(modes)
+	}
+	ranges := s.Ranges
+	if ranges == nil {
+		ranges, err = pilotRanges(p, pl, s.Seed)
+		if err != nil {
+			return nil, err
+		}
+	}
+	workers := make([]*worker, s.Workers)
+	for i := range workers {
+		if workers[i], err = newWorker(p, pl, modes, ranges); err != nil {
+			return nil, err
+		}
+	}
+	nChunks := (s.Samples + ChunkSize - 1) / ChunkSize
+	var done atomic.Int64
+	var mom [roundChunks]moments
+	var total moments
+	interrupted := false
+	for r0 := int64(0); r0 < nChunks && !interrupted; r0 += roundChunks {
+		r1 := min(r0+roundChunks, nChunks)
+		var next atomic.Int64
+		next.Store(r0)
+		var finished [roundChunks]bool
+		var wg sync.WaitGroup
+		for _, w := range workers {
+			wg.Add(1)
+			go func(w *worker) {
+				defer wg.Done()
+				for ctx.Err() == nil {
+					c := next.Add(1) - 1
+					if c >= r1 {
+						return
+					}
+					n := min(int64(ChunkSize), s.Samples-c*ChunkSize)
+					mom[c-r0] = w.runChunk(s.Seed, c, n)
+					finished[c-r0] = true
+					d := done.Add(n)
+					if s.Progress != nil {
+						s.Progress(d, s.Samples)
+					}
+				}
+			}(w)
+		}
+		wg.Wait()
+		for i := range r1 - r0 {
+			if !finished[i] {
+				interrupted = true
+				continue
+			}
+			total.n += mom[i].n
+			total.sum += mom[i].sum
+			total.ssq += mom[i].ssq
+		}
+		if ctx.Err() != nil {
+			interrupted = true
+		}
+		if s.Target > 0 && !interrupted {
+			t := sumTallies(workers)
+			if targetMet(t, modes, s.Confidence, s.Target) {
+				res.Converged = true
+				break
+			}
+		}
+	}
+	t := sumTallies(workers)
+	res.fill(t, modes, &total)
+	res.Partial = interrupted
+	res.Elapsed = time.Since(start)
+	if interrupted {
+		return res, fmt.Errorf("%w after %d samples: %v", ErrInterrupted, res.Samples+res.Invalid, context.Cause(ctx))
+	}
+	return res, nil
+}
+
+func sumTallies(ws []*worker) *tally {
+	t := newTally(&Ranges{})
+	for m := range t.sf {
+		t.sf[m] = cloneEmpty(&ws[0].t.sf[m])
+	}
+	for q := range t.q {
+		t.q[q] = cloneEmpty(&ws[0].t.q[q])
+	}
+	for _, w := range ws {
+		t.merge(w.t)
+	}
+	return t
+}
+
+func cloneEmpty(h *Histogram) Histogram { return NewHistogram(h.Lo, h.Hi, len(h.Counts)) }
+
+func targetMet(t *tally, modes []model.Mode, conf, target float64) bool {
+	if t.any == 0 {
+		return false
+	}
+	if Wilson(t.any, t.samples, conf).RelHalfWidth() > target {
+		return false
+	}
+	for _, m := range modes {
+		if t.fail[m] > 0 && Wilson(t.fail[m], t.samples, conf).RelHalfWidth() > target {
+			return false
+		}
+	}
+	return true
+}
+
+func (res *Result) fill(t *tally, modes []model.Mode, mom *moments) {
+	res.Samples, res.Invalid = t.samples, t.invalid
+	res.Any = Wilson(t.any, t.samples, res.Confidence)
+	for _, m := range modes {
+		mr := ModeResult{Mode: m, Interval: Wilson(t.fail[m], t.samples, res.Confidence), SF: t.sf[m]}
+		if res.Nominal.Active[m] {
+			mr.NominalSF = res.Nominal.SafetyFactor(m)
+		}
+		if res.NBolts > 1 && m <= model.Fatigue {
+			mr.BoltFailures, mr.BoltSamples = t.boltFail[m], t.boltSamples
+		}
+		res.Modes = append(res.Modes, mr)
+	}
+	res.Q = t.q
+	if mom.n > 0 {
+		res.PreloadMean = mom.sum / mom.n
+		res.PreloadSD = math.Sqrt(math.Max(mom.ssq/mom.n-res.PreloadMean*res.PreloadMean, 0))
+	}
+}
+
+// reportedModes are the modes active at nominal values.
+func reportedModes(nom *model.Outcome) []model.Mode {
+	var out []model.Mode
+	for m := model.Mode(0); m < model.NumModes; m++ {
+		if nom.Active[m] {
+			out = append(out, m)
+		}
+	}
+	return out
+}
+
+// pilotSamples is the size of the pilot run that fixes histogram ranges.
+const pilotSamples = 4096
+
+// pilotRanges runs a small pilot on its own stream and sets each histogram
+// to the pilot's range widened by 10 % on each side.
+func pilotRanges(p *Problem, pl *plan, seed uint64) (*Ranges, error) {
+	w, err := newWorker(p, pl, nil, nil)
+	if err != nil {
+		return nil, err
+	}
+	w.pcg.Seed(streamSeed(seed, math.MaxUint64))
+	var lo, hi Ranges
+	for q := range lo.Q {
+		lo.Q[q] = [2]float64{math.Inf(1), math.Inf(-1)}
+	}
+	for m := range lo.SF {
+		lo.SF[m] = [2]float64{math.Inf(1), math.Inf(-1)}
+	}
+	upd := func(r *[2]float64, v float64) {
+		if math.IsNaN(v) || math.IsInf(v, 0) {
+			return
+		}
+		r[0] = math.Min(r[0], v)
+		r[1] = math.Max(r[1], v)
+	}
+	for range pilotSamples {
+		w.sample()
+		if w.out.Invalid {
+			continue
+		}
+		for m := range model.NumModes {
+			if w.out.Active[m] {
+				upd(&lo.SF[m], w.out.SafetyFactor(m))
+			}
+		}
+		for b := range w.bolts {
+			br := &w.bolts[b]
+			upd(&lo.Q[QPreload], br.Preload)
+			upd(&lo.Q[QBoltForce], br.BoltForce)
+			upd(&lo.Q[QClamp], br.Clamp)
+		}
+	}
+	widen := func(r [2]float64, floor0 bool) [2]float64 {
+		if r[0] > r[1] { // no finite value seen
+			return [2]float64{0, 1}
+		}
+		span := r[1] - r[0]
+		if span == 0 {
+			span = math.Max(math.Abs(r[0])*0.01, 1e-9)
+		}
+		a, b := r[0]-0.1*span, r[1]+0.1*span
+		if floor0 && a < 0 && r[0] >= 0 {
+			a = 0
+		}
+		return [2]float64{a, b}
+	}
+	for q := range hi.Q {
+		hi.Q[q] = widen(lo.Q[q], q != int(QClamp))
+	}
+	for m := range hi.SF {
+		hi.SF[m] = widen(lo.SF[m], true)
+	}
+	return &hi, nil
+}
