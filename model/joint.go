@@ -137,13 +137,13 @@ type BoltResult struct {
 // Outcome is the state of the whole joint.
 type Outcome struct {
 	Stiffness Stiffness
-	Bolt     BoltResult // the bolt that governs the most modes (for identical bolts, any)
-	Demand   [NumModes]float64
-	Capacity [NumModes]float64
-	Active   [NumModes]bool
-	ClampSum float64 // sum over bolts of the residual clamp force (≥ 0 each), N
-	Invalid  bool
-	shear    bool // shear-side modes were set by the last evaluation
+	Bolt      BoltResult // the bolt that governs the most modes (for identical bolts, any)
+	Demand    [NumModes]float64
+	Capacity  [NumModes]float64
+	Active    [NumModes]bool
+	ClampSum  float64 // sum over bolts of the residual clamp force (≥ 0 each), N
+	Invalid   bool
+	shear     bool // shear-side modes were set by the last evaluation
 }
 
 // Margin returns capacity − demand of mode m; the mode fails when it is ≤ 0.

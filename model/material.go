@@ -23,7 +23,7 @@ type PropertyClass struct {
 	AlphaV float64
 	// Nominal ultimate strength fub of EN 1993-1-8 Table 3.1 (0 where the code gives none).
 	NominalTensile float64
-	Note   string
+	Note           string
 }
 
 // Property classes. Sources:

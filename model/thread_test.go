@@ -24,13 +24,13 @@ func TestMetricStressArea(t *testing.T) {
 		{"M36", 817, 0.002},    // ISO 898-1 Table 4 (confirmed)
 		{"M8x1", 39.17, 0.001}, // ASME B1.13M-based table (confirmed)
 		{"M10x1.25", 61.2, 0.001},
-		{"M12x1.25", 92.1, 0.001},  // ISO 898-1 Table 5 (confirmed)
-		{"M16x1.5", 167, 0.003},    // ISO 898-1 Table 5 (confirmed)
-		{"M20x1.5", 272, 0.003},    // ISO 898-1 Table 5 (confirmed)
-		{"M24x2", 384, 0.002},      // ISO 898-1 Table 5 (confirmed)
-		{"m12×1.75", 84.3, 0.002},  // coarse pitch written out resolves to M12
-		{"M10x1", 64.5, 0.002},     // ISO 898-1 Table 5 (from memory)
-		{"M12x1.5", 88.1, 0.002},   // ISO 898-1 Table 5 (from memory)
+		{"M12x1.25", 92.1, 0.001}, // ISO 898-1 Table 5 (confirmed)
+		{"M16x1.5", 167, 0.003},   // ISO 898-1 Table 5 (confirmed)
+		{"M20x1.5", 272, 0.003},   // ISO 898-1 Table 5 (confirmed)
+		{"M24x2", 384, 0.002},     // ISO 898-1 Table 5 (confirmed)
+		{"m12×1.75", 84.3, 0.002}, // coarse pitch written out resolves to M12
+		{"M10x1", 64.5, 0.002},    // ISO 898-1 Table 5 (from memory)
+		{"M12x1.5", 88.1, 0.002},  // ISO 898-1 Table 5 (from memory)
 	} {
 		th, err := LookupThread(test.name)
 		if err != nil {

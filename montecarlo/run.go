@@ -119,7 +119,7 @@ type Result struct {
 	Q       [numQuantities]Histogram
 	// Mean and standard deviation of the residual preload over all bolts, N.
 	PreloadMean, PreloadSD float64
-	NBolts  int // bolt evaluations per sample
+	NBolts                 int // bolt evaluations per sample
 }
 
 // Mode returns the result of mode m, if reported.
@@ -189,12 +189,12 @@ type worker struct {
 	out     model.Outcome
 	// The stream state lives inside the worker: a separately allocated 16-byte
 	// PCG shares a cache line with another worker's and halves the speed.
-	pcg rand.PCG
-	rng *rand.Rand
-	_   [64]byte
-	modes   []model.Mode // reported modes
-	set     model.ModeSet
-	t       *tally
+	pcg   rand.PCG
+	rng   *rand.Rand
+	_     [64]byte
+	modes []model.Mode // reported modes
+	set   model.ModeSet
+	t     *tally
 }
 
 func newWorker(p *Problem, pl *plan, modes []model.Mode, r *Ranges) (*worker, error) {
