@@ -339,6 +339,32 @@ func (d Dist) Shifted(mean float64) (Dist, error) {
 	return d, nil
 }
 
+// Multiplied returns the distribution of f·X for f > 0: the mean and the
+// spread scale together, the coefficient of variation and the family stay.
+// Studies use it to vary a nominal value at constant relative scatter.
+func (d Dist) Multiplied(f float64) (Dist, error) {
+	if !(f > 0) || math.IsInf(f, 0) {
+		return Dist{}, fmt.Errorf("multiplier must be > 0, got %g", f)
+	}
+	switch d.Kind {
+	case Fixed:
+		d.A *= f
+	case Normal:
+		d.A, d.B = d.A*f, d.B*f
+	case LogNormal:
+		d.A += math.Log(f)
+	case Uniform:
+		d.A, d.B = d.A*f, d.B*f
+	case Triangular:
+		d.A, d.B, d.C = d.A*f, d.B*f, d.C*f
+	case Weibull:
+		d.B *= f
+	case TruncNormal:
+		return NewTruncNormal(d.A*f, d.B*f, d.C*f, d.D*f)
+	}
+	return d, nil
+}
+
 // Scaled returns the distribution with its spread about the mean multiplied
 // by f > 0 (the mean kept); studies use it to vary a tolerance width.
 func (d Dist) Scaled(f float64) (Dist, error) {

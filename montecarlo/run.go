@@ -254,56 +254,120 @@ func (w *worker) sample() {
 // runChunk evaluates n samples of chunk c into the worker's tally and
 // returns the chunk's floating sums.
 func (w *worker) runChunk(seed uint64, c int64, n int64) moments {
-	var mom moments
 	w.pcg.Seed(streamSeed(seed, uint64(c)))
-	t := w.t
-	o := &w.out
+	var mom moments
 	for range n {
 		w.sample()
-		if o.Invalid {
-			t.invalid++
+		w.t.add(w.modes, &w.out, w.bolts, &mom)
+	}
+	return mom
+}
+
+// add tallies one evaluated sample and returns the set of modes it failed.
+func (t *tally) add(modes []model.Mode, o *model.Outcome, bolts []model.BoltResult, mom *moments) model.ModeSet {
+	if o.Invalid {
+		t.invalid++
+		return 0
+	}
+	t.samples++
+	var failed model.ModeSet
+	for _, m := range modes {
+		if !o.Active[m] {
 			continue
 		}
-		t.samples++
-		failed := false
-		for _, m := range w.modes {
-			if !o.Active[m] {
+		c, d := o.Capacity[m], o.Demand[m]
+		if c <= d {
+			t.fail[m]++
+			failed |= 1 << m
+		}
+		t.sf[m].Add(c / d)
+	}
+	if failed != 0 {
+		t.any++
+	}
+	for b := range bolts {
+		br := &bolts[b]
+		t.q[QPreload].Add(br.Preload)
+		t.q[QBoltForce].Add(br.BoltForce)
+		t.q[QClamp].Add(br.Clamp)
+		mom.n++
+		mom.sum += br.Preload
+		mom.ssq += br.Preload * br.Preload
+	}
+	if len(bolts) > 1 {
+		t.boltSamples += int64(len(bolts))
+		for _, m := range modes {
+			if m > model.Fatigue || !o.Active[m] {
 				continue
 			}
-			c, d := o.Capacity[m], o.Demand[m]
-			if c <= d {
-				t.fail[m]++
-				failed = true
-			}
-			t.sf[m].Add(c / d)
-		}
-		if failed {
-			t.any++
-		}
-		for b := range w.bolts {
-			br := &w.bolts[b]
-			t.q[QPreload].Add(br.Preload)
-			t.q[QBoltForce].Add(br.BoltForce)
-			t.q[QClamp].Add(br.Clamp)
-			mom.n++
-			mom.sum += br.Preload
-			mom.ssq += br.Preload * br.Preload
-		}
-		if len(w.bolts) > 1 {
-			t.boltSamples += int64(len(w.bolts))
-			for _, m := range w.modes {
-				if m > model.Fatigue || !o.Active[m] {
-					continue
-				}
-				for b := range w.bolts {
-					if w.bolts[b].Capacity[m] <= w.bolts[b].Demand[m] {
-						t.boltFail[m]++
-					}
+			for b := range bolts {
+				if bolts[b].Capacity[m] <= bolts[b].Demand[m] {
+					t.boltFail[m]++
 				}
 			}
 		}
 	}
-	return mom
+	return failed
+}
+
+// schedule runs the chunks of a run on nw workers in rounds of roundChunks.
+// job evaluates chunk c (n samples) on worker wi and writes k floating sums;
+// sums are merged in chunk order, so they do not depend on the worker count.
+// After each complete round, stop (if set) may end the run. It reports
+// whether the context ended the run early.
+func schedule(ctx context.Context, s Settings, nw, k int, stop func() bool, job func(wi int, c, n int64, mom []moments)) ([]moments, bool) {
+	nChunks := (s.Samples + ChunkSize - 1) / ChunkSize
+	var done atomic.Int64
+	slots := make([]moments, roundChunks*k)
+	total := make([]moments, k)
+	for r0 := int64(0); r0 < nChunks; r0 += roundChunks {
+		r1 := min(r0+roundChunks, nChunks)
+		var next atomic.Int64
+		next.Store(r0)
+		var finished [roundChunks]bool
+		var wg sync.WaitGroup
+		for wi := range nw {
+			wg.Add(1)
+			go func() {
+				defer wg.Done()
+				for ctx.Err() == nil {
+					c := next.Add(1) - 1
+					if c >= r1 {
+						return
+					}
+					n := min(int64(ChunkSize), s.Samples-c*ChunkSize)
+					i := int(c - r0)
+					job(wi, c, n, slots[i*k:(i+1)*k])
+					finished[i] = true
+					d := done.Add(n)
+					if s.Progress != nil {
+						s.Progress(d, s.Samples)
+					}
+				}
+			}()
+		}
+		wg.Wait()
+		interrupted := ctx.Err() != nil
+		for i := range r1 - r0 {
+			if !finished[i] {
+				interrupted = true
+				continue
+			}
+			for j := range k {
+				m := slots[int(i)*k+j]
+				total[j].n += m.n
+				total[j].sum += m.sum
+				total[j].ssq += m.ssq
+			}
+		}
+		if interrupted {
+			return total, true
+		}
+		if stop != nil && stop() {
+			break
+		}
+	}
+	return total, false
 }
 
 // ErrInterrupted wraps the context error of an interrupted run; the result
@@ -354,57 +418,17 @@ func Run(ctx context.Context, p *Problem, s Settings) (*Result, error) {
 			return nil, err
 		}
 	}
-	nChunks := (s.Samples + ChunkSize - 1) / ChunkSize
-	var done atomic.Int64
-	var mom [roundChunks]moments
-	var total moments
-	interrupted := false
-	for r0 := int64(0); r0 < nChunks && !interrupted; r0 += roundChunks {
-		r1 := min(r0+roundChunks, nChunks)
-		var next atomic.Int64
-		next.Store(r0)
-		var finished [roundChunks]bool
-		var wg sync.WaitGroup
-		for _, w := range workers {
-			wg.Add(1)
-			go func(w *worker) {
-				defer wg.Done()
-				for ctx.Err() == nil {
-					c := next.Add(1) - 1
-					if c >= r1 {
-						return
-					}
-					n := min(int64(ChunkSize), s.Samples-c*ChunkSize)
-					mom[c-r0] = w.runChunk(s.Seed, c, n)
-					finished[c-r0] = true
-					d := done.Add(n)
-					if s.Progress != nil {
-						s.Progress(d, s.Samples)
-					}
-				}
-			}(w)
-		}
-		wg.Wait()
-		for i := range r1 - r0 {
-			if !finished[i] {
-				interrupted = true
-				continue
-			}
-			total.n += mom[i].n
-			total.sum += mom[i].sum
-			total.ssq += mom[i].ssq
-		}
-		if ctx.Err() != nil {
-			interrupted = true
-		}
-		if s.Target > 0 && !interrupted {
-			t := sumTallies(workers)
-			if targetMet(t, modes, s.Confidence, s.Target) {
-				res.Converged = true
-				break
-			}
+	var stop func() bool
+	if s.Target > 0 {
+		stop = func() bool {
+			res.Converged = targetMet(sumTallies(workers), modes, s.Confidence, s.Target)
+			return res.Converged
 		}
 	}
+	totals, interrupted := schedule(ctx, s, len(workers), 1, stop, func(wi int, c, n int64, mom []moments) {
+		mom[0] = workers[wi].runChunk(s.Seed, c, n)
+	})
+	total := totals[0]
 	t := sumTallies(workers)
 	res.fill(t, modes, &total)
 	res.Partial = interrupted

@@ -58,7 +58,7 @@ Results are reproducible: the same --seed gives identical numbers for any
 	cmd.Flags().StringVar(&opts.Example, "example", "", "use a built-in example scenario instead of FILE (see 'boltrisk example')")
 	cmd.Flags().BoolVar(&opts.JSON, "json", false, "write the result as JSON (SI units, schema in README)")
 	cmd.Flags().StringVar(&opts.Units, "units", "si", "units of the text report: si or us (default: the scenario's)")
-	opts.Run.add(cmd)
+	opts.Run.add(cmd, true)
 	return cmd
 }
 

@@ -31,18 +31,24 @@ type runFlags struct {
 	Quiet      bool
 	Modes      string
 	changed    func(string) bool
+	precision  bool
 }
 
-func (f *runFlags) add(cmd *cobra.Command) {
+// add registers the flags; precision adds --target (relative half-width),
+// which only simulate uses.
+func (f *runFlags) add(cmd *cobra.Command, precision bool) {
 	fl := cmd.Flags()
 	fl.StringVar(&f.Samples, "samples", "", "number of samples, e.g. 1e6 (default: the scenario's study.samples, else 1e6); the cap when --target is set")
 	fl.Uint64Var(&f.Seed, "seed", 1, "seed of the random streams (default: the scenario's study.seed, else 1); the same seed gives identical results for any --workers")
 	fl.IntVar(&f.Workers, "workers", 0, "parallel workers (default: all cores)")
 	fl.Float64Var(&f.Confidence, "confidence", 0.95, "two-sided confidence of the intervals, in (0, 1)")
-	fl.Float64Var(&f.Target, "target", 0, "stop once every failing mode's interval half-width is within this fraction of its estimate, e.g. 0.1")
+	if precision {
+		fl.Float64Var(&f.Target, "target", 0, "stop once every failing mode's interval half-width is within this fraction of its estimate, e.g. 0.1")
+	}
 	fl.BoolVar(&f.Quiet, "quiet", false, "no progress bar or timing line on stderr")
 	fl.StringVar(&f.Modes, "modes", "", "comma-separated mode keys to tally (default: every active mode)")
 	f.changed = func(name string) bool { return cmd.Flags().Changed(name) }
+	f.precision = precision
 }
 
 // settings turns the flags (and the scenario's study section) into runner
@@ -67,7 +73,7 @@ func (f *runFlags) settings(s *scenario.Scenario) (montecarlo.Settings, error) {
 	if !f.changed("confidence") && s.Study.Confidence > 0 {
 		set.Confidence = s.Study.Confidence
 	}
-	if !f.changed("target") && s.Study.Target > 0 {
+	if f.precision && !f.changed("target") && s.Study.Target > 0 {
 		set.Target = s.Study.Target
 	}
 	if !(set.Confidence > 0 && set.Confidence < 1) {

@@ -1,7 +1,9 @@
 package scenario
 
 import (
+	"fmt"
 	"strconv"
+	"strings"
 
 	"boltrisk/model"
 	"boltrisk/model/units"
@@ -84,7 +86,21 @@ func ResolvePath(name string) (string, error) {
 	case 1:
 		return hits[0], nil
 	case 0:
-		return "", &Error{Field: name, Msg: "no such input" + suggest(name, FieldPaths())}
+		hint := suggest(name, FieldPaths())
+		if hint == "" {
+			// Compare with the last part of each path, suggest the full path.
+			best, bestD := "", 3
+			for _, f := range fields {
+				last := f.path[strings.LastIndexByte(f.path, '.')+1:]
+				if d := editDistance(name, last); d < bestD {
+					best, bestD = f.path, d
+				}
+			}
+			if best != "" {
+				hint = fmt.Sprintf(" (did you mean %q?)", best)
+			}
+		}
+		return "", &Error{Field: name, Msg: "no such input" + hint}
 	}
 	return "", &Error{Field: name, Msg: "ambiguous: could be " + joinOr(hits)}
 }
@@ -118,4 +134,51 @@ func FieldPtr(in *model.Inputs, path string) *float64 {
 func FieldPerBolt(path string) bool {
 	f, _ := lookupField(path)
 	return f.perBolt
+}
+
+// SameJoint reports why two scenarios are not variants of one joint under
+// one duty: a comparison of assembly choices holds the bolt count and the
+// service loads fixed, and says which differs.
+func SameJoint(a, b *Scenario) error {
+	ia, ib := a.Inputs(), b.Inputs()
+	name := func(s *Scenario) string {
+		if s.Variant != "" {
+			return s.Variant
+		}
+		if s.File != "" {
+			return s.File
+		}
+		return s.Name
+	}
+	if ia.Bolts != ib.Bolts {
+		return fmt.Errorf("%q and %q are not the same joint: bolt.count differs (%d vs %d)", name(a), name(b), ia.Bolts, ib.Bolts)
+	}
+	for _, path := range []string{"loads.axial_max", "loads.axial_min", "loads.shear"} {
+		va, ua := a.Uncertain(path)
+		vb, ub := b.Uncertain(path)
+		fa, fb := *FieldPtr(ia, path), *FieldPtr(ib, path)
+		same := ua == ub && (ua && va.Dist == vb.Dist || !ua && fa == fb)
+		if !same {
+			return fmt.Errorf("%q and %q are not the same joint under the same duty: %s differs (%s vs %s); a comparison holds the loads fixed — run them separately with 'simulate'",
+				name(a), name(b), path, describe(a, path), describe(b, path))
+		}
+	}
+	return nil
+}
+
+func describe(s *Scenario, path string) string {
+	f := func(v float64) string { return units.SI.Format(v, FieldDim(path)) }
+	if v, ok := s.Uncertain(path); ok {
+		return v.Dist.Describe(f)
+	}
+	return f(*FieldPtr(s.Inputs(), path))
+}
+
+// FieldPtrFunc returns the binding of an input path to its field, or nil.
+func FieldPtrFunc(path string) func(*model.Inputs) *float64 {
+	f, ok := lookupField(path)
+	if !ok {
+		return nil
+	}
+	return f.ptr
 }

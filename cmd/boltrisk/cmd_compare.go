@@ -1,0 +1,156 @@
+package main
+
+import (
+	"context"
+	"errors"
+	"io"
+	"path/filepath"
+	"strings"
+
+	"github.com/spf13/cobra"
+
+	"boltrisk/montecarlo"
+	"boltrisk/montecarlo/report"
+	"boltrisk/montecarlo/scenario"
+)
+
+// CompareOptions are the options of `boltrisk compare`.
+type CompareOptions struct {
+	Out, ErrOut io.Writer
+	Files       []string
+	Example     string
+	JSON        bool
+	Units       string
+	UnitsOn     bool
+	Run         runFlags
+}
+
+func init() {
+	extraCommands = append(extraCommands, func(stdout, stderr io.Writer) *cobra.Command {
+		return newCompareCmd(stdout, stderr, nil)
+	})
+}
+
+func newCompareCmd(stdout, stderr io.Writer, runF func(context.Context, *CompareOptions) error) *cobra.Command {
+	opts := &CompareOptions{Out: stdout, ErrOut: stderr}
+	cmd := &cobra.Command{
+		Use:   "compare FILE [FILE…]",
+		Short: "Compare assembly variants (dry vs oiled, wrench vs angle control) with paired samples",
+		Long: `Run variants of one joint in lock step with common random numbers: every sample
+draws the shared inputs once and each variant maps the same draws through its own
+distributions. Give one FILE with a variants: section (the base and each variant),
+or several FILEs (the first is the base).
+
+For each mode it reports each variant's probability, the paired difference from
+the base with its interval (narrower than two independent runs would give), the
+ratio, and a verdict at the chosen confidence — better, worse, or no significant
+difference — from McNemar's exact test on the discordant pairs.
+
+Variants must be the same joint under the same duty: same bolt count and the
+same service loads; anything else (condition, tool, torque, class…) may differ.
+
+` + report.Caution + "\n" + exitCodesHelp,
+		Example: `  boltrisk compare --example cover-flange
+  boltrisk compare dry.yaml oiled.yaml paste.yaml --samples 2e6`,
+		RunE: func(cmd *cobra.Command, args []string) error {
+			opts.Files = args
+			opts.UnitsOn = cmd.Flags().Changed("units")
+			if runF != nil {
+				return runF(cmd.Context(), opts)
+			}
+			return runCompare(cmd.Context(), opts)
+		},
+	}
+	cmd.Flags().StringVar(&opts.Example, "example", "", "use a built-in example scenario (with variants) instead of FILE")
+	cmd.Flags().BoolVar(&opts.JSON, "json", false, "write the result as JSON (SI units, schema in README)")
+	cmd.Flags().StringVar(&opts.Units, "units", "si", "units of the text report: si or us")
+	opts.Run.add(cmd, false)
+	return cmd
+}
+
+// variants loads the scenarios to compare and their labels.
+func loadVariants(files []string, example string) ([]*scenario.Scenario, []string, error) {
+	var ss []*scenario.Scenario
+	var names []string
+	switch {
+	case example != "" && len(files) > 0:
+		return nil, nil, usagef("give scenario FILEs or --example NAME, not both")
+	case example != "" || len(files) == 1:
+		s, err := loadScenario(files, example)
+		if err != nil {
+			return nil, nil, err
+		}
+		if len(s.Variants) == 0 {
+			return nil, nil, usagef("%s has no variants: section; give several FILEs or add variants", label(s))
+		}
+		ss = append(ss, s)
+		names = append(names, "base")
+		for _, v := range s.Variants {
+			ss = append(ss, v)
+			names = append(names, v.Variant)
+		}
+	case len(files) >= 2:
+		for _, f := range files {
+			s, err := scenario.Load(f)
+			if err != nil {
+				return nil, nil, err // names the file
+			}
+			ss = append(ss, s)
+			names = append(names, strings.TrimSuffix(filepath.Base(f), filepath.Ext(f)))
+		}
+	default:
+		return nil, nil, usagef("compare needs a FILE with variants, several FILEs, or --example NAME")
+	}
+	for i := 1; i < len(ss); i++ {
+		if err := scenario.SameJoint(ss[0], ss[i]); err != nil {
+			return nil, nil, err
+		}
+	}
+	return ss, names, nil
+}
+
+func label(s *scenario.Scenario) string {
+	if s.File != "" {
+		return s.File
+	}
+	return "the example"
+}
+
+func runCompare(ctx context.Context, opts *CompareOptions) error {
+	ss, names, err := loadVariants(opts.Files, opts.Example)
+	if err != nil {
+		return err
+	}
+	sys, err := parseUnits(opts.Units, ss[0], opts.UnitsOn)
+	if err != nil {
+		return err
+	}
+	set, err := opts.Run.settings(ss[0])
+	if err != nil {
+		return err
+	}
+	ps := make([]*montecarlo.Problem, len(ss))
+	for i, s := range ss {
+		ps[i] = &s.Problem
+	}
+	var done func()
+	set.Progress, done = opts.Run.progress(opts.ErrOut, set.Samples, "comparing")
+	pr, runErr := montecarlo.RunPaired(ctx, ps, set)
+	done()
+	if runErr != nil && !errors.Is(runErr, montecarlo.ErrInterrupted) {
+		return runErr
+	}
+	doc := report.Compare(ss, names, pr, set, toolVersion())
+	if opts.JSON {
+		err = report.WriteJSON(opts.Out, doc)
+	} else {
+		report.WriteCompare(opts.Out, doc, sys)
+	}
+	if err != nil {
+		return err
+	}
+	if pr.Partial {
+		return errPartial
+	}
+	return nil
+}
