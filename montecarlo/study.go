@@ -191,8 +191,11 @@ type Window struct {
 	// true end lies beyond it.
 	OpenLo, OpenHi bool
 	// Modes above the target at the first step outside each end, most
-	// probable first.
-	LoModes, HiModes []model.Mode
+	// probable first. When no single mode exceeds the target there and only
+	// their combination does, LoCombined/HiCombined is set and the list holds
+	// the most probable mode alone.
+	LoModes, HiModes       []model.Mode
+	LoCombined, HiCombined bool
 	Best, BestP      float64 // step with the least any-mode probability
 	Conservative     bool    // built from the upper confidence bounds
 }
@@ -233,12 +236,12 @@ func FindWindow(sw *Sweep, target float64, conservative bool) Window {
 	if !w.OpenLo {
 		out, in := sw.Steps[lo-1], sw.Steps[lo]
 		w.Lo = crossing(out.X, p(out.Result.Any), in.X, p(in.Result.Any), target)
-		w.LoModes = above(out.Result, target, p)
+		w.LoModes, w.LoCombined = above(out.Result, target, p)
 	}
 	if !w.OpenHi {
 		in, out := sw.Steps[hi], sw.Steps[hi+1]
 		w.Hi = crossing(out.X, p(out.Result.Any), in.X, p(in.Result.Any), target)
-		w.HiModes = above(out.Result, target, p)
+		w.HiModes, w.HiCombined = above(out.Result, target, p)
 	}
 	return w
 }
@@ -253,19 +256,26 @@ func crossing(xo, po, xi, pi, target float64) float64 {
 	return xo + (xi-xo)*(po-target)/(po-pi)
 }
 
-func above(r *Result, target float64, p func(Interval) float64) []model.Mode {
-	var out []model.Mode
+func above(r *Result, target float64, p func(Interval) float64) ([]model.Mode, bool) {
+	ms := make([]model.Mode, 0, len(r.Modes))
 	for _, m := range r.Modes {
-		if p(m.Interval) > target {
-			out = append(out, m.Mode)
-		}
+		ms = append(ms, m.Mode)
 	}
-	sort.SliceStable(out, func(i, j int) bool {
-		a, _ := r.Mode(out[i])
-		b, _ := r.Mode(out[j])
+	sort.SliceStable(ms, func(i, j int) bool {
+		a, _ := r.Mode(ms[i])
+		b, _ := r.Mode(ms[j])
 		return p(a.Interval) > p(b.Interval)
 	})
-	return out
+	var out []model.Mode
+	for _, m := range ms {
+		if mr, _ := r.Mode(m); p(mr.Interval) > target {
+			out = append(out, m)
+		}
+	}
+	if len(out) == 0 && len(ms) > 0 {
+		return ms[:1], true
+	}
+	return out, false
 }
 
 // SpreadLimit is the answer to "how much scatter may this input have?".

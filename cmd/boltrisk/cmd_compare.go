@@ -23,6 +23,7 @@ type CompareOptions struct {
 	Units       string
 	UnitsOn     bool
 	Run         runFlags
+	Output      outFlags
 }
 
 func init() {
@@ -65,6 +66,7 @@ same service loads; anything else (condition, tool, torque, class…) may differ
 	cmd.Flags().BoolVar(&opts.JSON, "json", false, "write the result as JSON (SI units, schema in README)")
 	cmd.Flags().StringVar(&opts.Units, "units", "si", "units of the text report: si or us")
 	opts.Run.add(cmd, false)
+	opts.Output.add(cmd)
 	return cmd
 }
 
@@ -141,6 +143,16 @@ func runCompare(ctx context.Context, opts *CompareOptions) error {
 		return runErr
 	}
 	doc := report.Compare(ss, names, pr, set, toolVersion())
+	if opts.Output.Dir != "" && !pr.Partial {
+		figs, err := report.CompareFigures(names, pr, sys)
+		if err != nil {
+			return err
+		}
+		rev := report.CompareReview(ss, doc, figs, provenance(ss, set.Seed, pr.Samples, pr.Variants[0].Workers, opts.Output.Now), sys)
+		if err := opts.Output.write(rev, ss, opts.ErrOut, opts.Run.Quiet); err != nil {
+			return err
+		}
+	}
 	if opts.JSON {
 		err = report.WriteJSON(opts.Out, doc)
 	} else {

@@ -9,6 +9,7 @@ import (
 
 	"boltrisk/montecarlo"
 	"boltrisk/montecarlo/report"
+	"boltrisk/montecarlo/scenario"
 )
 
 // SimulateOptions are the options of `boltrisk simulate`.
@@ -20,6 +21,9 @@ type SimulateOptions struct {
 	Units       string
 	UnitsOn     bool
 	Run         runFlags
+	Output      outFlags
+	LoadCurve   string
+	LoadSteps   int
 }
 
 func init() {
@@ -44,7 +48,8 @@ Results are reproducible: the same --seed gives identical numbers for any
 ` + report.Caution + "\n" + exitCodesHelp,
 		Example: `  boltrisk simulate --example cover-flange
   boltrisk simulate joint.yaml --samples 1e7 --seed 42 --json
-  boltrisk simulate joint.yaml --target 0.05 --samples 1e8`,
+  boltrisk simulate joint.yaml --target 0.05 --samples 1e8
+  boltrisk simulate --example cover-flange --out review --load-curve 0.5..2`,
 		Args: cobra.MaximumNArgs(1),
 		RunE: func(cmd *cobra.Command, args []string) error {
 			opts.File = args
@@ -59,6 +64,9 @@ Results are reproducible: the same --seed gives identical numbers for any
 	cmd.Flags().BoolVar(&opts.JSON, "json", false, "write the result as JSON (SI units, schema in README)")
 	cmd.Flags().StringVar(&opts.Units, "units", "si", "units of the text report: si or us (default: the scenario's)")
 	opts.Run.add(cmd, true)
+	opts.Output.add(cmd)
+	cmd.Flags().StringVar(&opts.LoadCurve, "load-curve", "", "with --out: also draw the probability of each mode against a multiplier LO..HI on the service loads, e.g. 0.5..2")
+	cmd.Flags().IntVar(&opts.LoadSteps, "load-steps", 9, "values of the load multiplier for --load-curve")
 	return cmd
 }
 
@@ -75,6 +83,14 @@ func runSimulate(ctx context.Context, opts *SimulateOptions) error {
 	if err != nil {
 		return err
 	}
+	if opts.LoadCurve != "" && opts.Output.Dir == "" {
+		return usagef("--load-curve draws a picture: give --out DIR too")
+	}
+	if opts.LoadCurve != "" {
+		if _, err = parseVary("load="+opts.LoadCurve, s, opts.LoadSteps); err != nil {
+			return usagef("--load-curve %q: %v", opts.LoadCurve, errors.Unwrap(err))
+		}
+	}
 	var done func()
 	set.Progress, done = opts.Run.progress(opts.ErrOut, set.Samples, "sampling")
 	res, runErr := montecarlo.Run(ctx, &s.Problem, set)
@@ -84,6 +100,11 @@ func runSimulate(ctx context.Context, opts *SimulateOptions) error {
 	}
 	opts.Run.timing(opts.ErrOut, res.Samples+res.Invalid, res.Elapsed)
 	doc := report.Simulation(s, res, set.Target, toolVersion())
+	if opts.Output.Dir != "" {
+		if err := writeSimulationReview(ctx, opts, s, res, doc, set); err != nil {
+			return err
+		}
+	}
 	if opts.JSON {
 		err = report.WriteJSON(opts.Out, doc)
 	} else {
@@ -96,4 +117,35 @@ func runSimulate(ctx context.Context, opts *SimulateOptions) error {
 		return errPartial
 	}
 	return nil
+}
+
+func writeSimulationReview(ctx context.Context, opts *SimulateOptions, s *scenario.Scenario, res *montecarlo.Result, doc report.SimDoc, set montecarlo.Settings) error {
+	sys, _ := parseUnits(opts.Units, s, opts.UnitsOn)
+	pf, _, err := report.PreloadFigure(s, res, sys)
+	if err != nil {
+		return err
+	}
+	figs := []report.Figure{pf}
+	sf, err := report.SafetyFactorFigures(s, res)
+	if err != nil {
+		return err
+	}
+	figs = append(figs, sf...)
+	if opts.LoadCurve != "" {
+		v, _ := parseVary("load="+opts.LoadCurve, s, opts.LoadSteps)
+		lset := set
+		lset.Target, lset.Progress = 0, nil
+		sw, err := montecarlo.RunSweep(ctx, &s.Problem, v, lset)
+		if err != nil {
+			return err
+		}
+		f, _, err := report.CurveFigure(s, sw, 0, sys, "load-curve.png", "Failure probability against load level")
+		if err != nil {
+			return err
+		}
+		figs = append(figs, f)
+	}
+	ss := []*scenario.Scenario{s}
+	rev := report.SimulationReview(s, doc, figs, provenance(ss, res.Seed, res.Samples, res.Workers, opts.Output.Now), sys)
+	return opts.Output.write(rev, ss, opts.ErrOut, opts.Run.Quiet)
 }

@@ -27,6 +27,7 @@ type SweepOptions struct {
 	Target      float64
 	MaxScatter  string
 	Run         runFlags
+	Output      outFlags
 }
 
 func init() {
@@ -83,6 +84,7 @@ the largest scatter of INPUT (at the scenario's nominal values) that still meets
 	fl.Float64Var(&opts.Target, "target", 0, "target failure probability in (0, 1): report the window that meets it")
 	fl.StringVar(&opts.MaxScatter, "max-scatter", "", "find the largest scatter of this uncertain input that meets --target")
 	opts.Run.add(cmd, false)
+	opts.Output.add(cmd)
 	return cmd
 }
 
@@ -186,6 +188,13 @@ func runSweep(ctx context.Context, opts *SweepOptions) error {
 			return usagef("--max-scatter %q: %v", opts.MaxScatter, err)
 		}
 		doc := report.SpreadLimit(s, sl, set, toolVersion())
+		if opts.Output.Dir != "" {
+			ss := []*scenario.Scenario{s}
+			rev := report.SweepReview(s, doc, nil, provenance(ss, set.Seed, set.Samples, set.Workers, opts.Output.Now), sys)
+			if err := opts.Output.write(rev, ss, opts.ErrOut, opts.Run.Quiet); err != nil {
+				return err
+			}
+		}
 		if opts.JSON {
 			return report.WriteJSON(opts.Out, doc)
 		}
@@ -207,6 +216,17 @@ func runSweep(ctx context.Context, opts *SweepOptions) error {
 		return runErr
 	}
 	doc := report.Sweep(s, sw, set, opts.Target, toolVersion())
+	if opts.Output.Dir != "" && !sw.Partial {
+		f, _, err := report.CurveFigure(s, sw, opts.Target, sys, "reliability.png", "Failure probability against "+v.Path)
+		if err != nil {
+			return err
+		}
+		ss := []*scenario.Scenario{s}
+		rev := report.SweepReview(s, doc, []report.Figure{f}, provenance(ss, set.Seed, set.Samples, set.Workers, opts.Output.Now), sys)
+		if err := opts.Output.write(rev, ss, opts.ErrOut, opts.Run.Quiet); err != nil {
+			return err
+		}
+	}
 	if opts.JSON {
 		err = report.WriteJSON(opts.Out, doc)
 	} else {

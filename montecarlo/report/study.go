@@ -37,6 +37,10 @@ type TargetWindowDoc struct {
 	UpperOpen       bool     `json:"upper_at_range_end"`
 	LowerBoundModes []string `json:"modes_bounding_lower"`
 	UpperBoundModes []string `json:"modes_bounding_upper"`
+	// Set when no single mode exceeds the target beyond that end, only the
+	// joint as a whole; the list then names the largest contributor.
+	LowerCombined bool `json:"lower_bounded_by_combination"`
+	UpperCombined bool `json:"upper_bounded_by_combination"`
 	Best            float64  `json:"least_any_mode_at"`
 	BestProbability float64  `json:"least_any_mode_probability"`
 }
@@ -89,7 +93,8 @@ func resultModes(r *montecarlo.Result) (map[string]ProbDoc, []string) {
 
 func windowDoc(w montecarlo.Window) *TargetWindowDoc {
 	d := &TargetWindowDoc{Target: w.Target, Found: w.Found, Lower: w.Lo, Upper: w.Hi, LowerOpen: w.OpenLo, UpperOpen: w.OpenHi,
-		Best: w.Best, BestProbability: w.BestP, LowerBoundModes: []string{}, UpperBoundModes: []string{}}
+		Best: w.Best, BestProbability: w.BestP, LowerBoundModes: []string{}, UpperBoundModes: []string{},
+		LowerCombined: w.LoCombined, UpperCombined: w.HiCombined}
 	for _, m := range w.LoModes {
 		d.LowerBoundModes = append(d.LowerBoundModes, m.Key())
 	}
@@ -199,6 +204,17 @@ func WriteSweep(w io.Writer, s *scenario.Scenario, doc SweepDoc, sys units.Syste
 	WriteCaution(w)
 }
 
+// Bound says what limits one end of a window.
+func Bound(open, combined bool, modes []string) string {
+	switch {
+	case open:
+		return "end of the swept range: widen it"
+	case combined:
+		return "bounded by the joint as a whole: no single mode exceeds the target; largest " + strings.Join(modes, ", ")
+	}
+	return "bounded by " + strings.Join(modes, ", ")
+}
+
 func shortName(p string) string {
 	if i := strings.LastIndexByte(p, '.'); i >= 0 {
 		return p[i+1:]
@@ -212,13 +228,8 @@ func writeWindow(w io.Writer, d *TargetWindowDoc, fx func(float64) string, basis
 		fmt.Fprintf(w, "  NO value in the swept range meets the target; the least any-mode probability is %.3g at %s.\n", d.BestProbability, fx(d.Best))
 		return
 	}
-	end := func(v float64, open bool, modes []string) string {
-		if open {
-			return fx(v) + " (end of the swept range: widen it)"
-		}
-		return fx(v) + " (bounded by " + strings.Join(modes, ", ") + ")"
-	}
-	fmt.Fprintf(w, "  from %s\n  to   %s\n", end(d.Lower, d.LowerOpen, d.LowerBoundModes), end(d.Upper, d.UpperOpen, d.UpperBoundModes))
+	fmt.Fprintf(w, "  from %s (%s)\n  to   %s (%s)\n", fx(d.Lower), Bound(d.LowerOpen, d.LowerCombined, d.LowerBoundModes),
+		fx(d.Upper), Bound(d.UpperOpen, d.UpperCombined, d.UpperBoundModes))
 	fmt.Fprintf(w, "  least any-mode probability %.3g at %s\n", d.BestProbability, fx(d.Best))
 }
 

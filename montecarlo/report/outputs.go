@@ -1,0 +1,301 @@
+package report
+
+import (
+	"fmt"
+	"io"
+	"math"
+	"os"
+	"path/filepath"
+	"strings"
+	"time"
+
+	"gonum.org/v1/plot"
+
+	"boltrisk/model"
+	"boltrisk/model/units"
+	"boltrisk/montecarlo"
+	"boltrisk/montecarlo/scenario"
+	"boltrisk/plots"
+)
+
+// Provenance identifies how a result was made.
+type Provenance struct {
+	Version string
+	Command string
+	Seed    uint64
+	Samples int64
+	Workers int
+	Date    time.Time
+	Inputs  []*scenario.Scenario
+}
+
+func (p Provenance) rows() [][2]string {
+	rows := [][2]string{
+		{"tool", "boltrisk " + p.Version},
+		{"command", p.Command},
+		{"seed", fmt.Sprint(p.Seed)},
+		{"samples", fmt.Sprint(p.Samples)},
+		{"workers", fmt.Sprintf("%d (results do not depend on it)", p.Workers)},
+		{"date", p.Date.UTC().Format(time.RFC3339)},
+	}
+	seen := map[string]bool{}
+	for _, s := range p.Inputs {
+		name := s.File
+		if name == "" {
+			name = "built-in example"
+		}
+		if seen[name+s.SHA256] {
+			continue
+		}
+		seen[name+s.SHA256] = true
+		rows = append(rows, [2]string{"input " + name, "SHA-256 " + s.SHA256})
+	}
+	return rows
+}
+
+// Hist converts a runner histogram for plotting.
+func Hist(h *montecarlo.Histogram) plots.Hist {
+	return plots.Hist{Lo: h.Lo, Hi: h.Hi, Counts: h.Counts, Under: h.Under, Over: h.Over}
+}
+
+func figure(p *plot.Plot, file, caption string) (Figure, error) {
+	b, err := plots.PNG(p)
+	if err != nil {
+		return Figure{}, fmt.Errorf("drawing %s: %w", file, err)
+	}
+	return Figure{File: file, Caption: caption, PNG: b}, nil
+}
+
+// PreloadFigure draws the residual preload of every bolt with the preload
+// window marked and the share of samples outside it.
+func PreloadFigure(s *scenario.Scenario, r *montecarlo.Result, sys units.System) (Figure, plots.HistSpec, error) {
+	w := model.PreloadWindow(s.Inputs())
+	unit, scale := forceUnit(sys)
+	h := &r.Q[montecarlo.QPreload]
+	markers := []plots.Marker{{X: w.ProofMax, Label: "greatest below proof load " + sys.Format(w.ProofMax, units.Force)}}
+	below := 0.0
+	if w.SeparationMin > 0 {
+		markers = append([]plots.Marker{{X: w.SeparationMin, Label: "least against separation " + sys.Format(w.SeparationMin, units.Force)}}, markers...)
+		below = h.FractionBelow(w.SeparationMin)
+	}
+	if w.SlipMin > 0 {
+		markers = append(markers, plots.Marker{X: w.SlipMin, Label: "least against slip " + sys.Format(w.SlipMin, units.Force)})
+		below = h.FractionBelow(w.SlipMin)
+	}
+	above := 1 - h.FractionBelow(w.ProofMax)
+	spec := plots.HistSpec{
+		Title:   "Residual preload per bolt (" + titleOf(s) + ")",
+		XLabel:  "residual preload after embedding and relaxation (" + unit + ")",
+		Hist:    Hist(h),
+		Scale:   scale,
+		Markers: markers,
+		Notes: []string{
+			fmt.Sprintf("below the window: %s of bolt samples", pct(below)),
+			fmt.Sprintf("above the window: %s of bolt samples", pct(above)),
+		},
+	}
+	p, _, err := plots.HistogramPlot(spec)
+	if err != nil {
+		return Figure{}, spec, err
+	}
+	f, err := figure(p, "preload.png", "Residual preload of every bolt in every sample, with the preload window: the least preload that avoids separation (and slip) at the largest load, and the greatest that stays below the proof load.")
+	return f, spec, err
+}
+
+func pct(f float64) string {
+	if math.IsNaN(f) || f <= 0 {
+		return "0 %"
+	}
+	return fmt.Sprintf("%.3g %%", 100*f)
+}
+
+func forceUnit(sys units.System) (string, float64) {
+	_, f := sys.Unit(units.Force)
+	if sys == units.US {
+		return "kip", f * 1000
+	}
+	return "kN", f * 1000
+}
+
+func titleOf(s *scenario.Scenario) string {
+	t := s.Name
+	if s.Variant != "" {
+		t += " — " + s.Variant
+	}
+	if t == "" {
+		t = "scenario"
+	}
+	return t
+}
+
+// SafetyFactorFigures draws one safety-factor histogram per reported mode,
+// with the failure line at 1.
+func SafetyFactorFigures(s *scenario.Scenario, r *montecarlo.Result) ([]Figure, error) {
+	var out []Figure
+	for _, m := range r.Modes {
+		spec := plots.HistSpec{
+			Title:   fmt.Sprintf("Safety factor: %s (%s)", strings.ToLower(m.Mode.Title()), titleOf(s)),
+			XLabel:  "safety factor (capacity / demand)",
+			Hist:    Hist(&m.SF),
+			Markers: []plots.Marker{{X: 1, Label: "failure at 1"}},
+			Notes:   []string{fmt.Sprintf("failures: %d of %d samples", m.Interval.Failures, m.Interval.Samples)},
+		}
+		if m.Mode == model.Fatigue {
+			spec.Title = fmt.Sprintf("Fatigue safety factor, %s criterion (%s)", s.Inputs().Criterion, titleOf(s))
+		}
+		p, _, err := plots.HistogramPlot(spec)
+		if err != nil {
+			return nil, err
+		}
+		f, err := figure(p, "sf-"+m.Mode.Key()+".png", fmt.Sprintf("Safety factor of %s over all samples; the mode fails left of the line at 1.", strings.ToLower(m.Mode.Title())))
+		if err != nil {
+			return nil, err
+		}
+		out = append(out, f)
+	}
+	return out, nil
+}
+
+// Curves converts a sweep into plot curves, one per mode and one for any mode.
+func Curves(sw *montecarlo.Sweep) []plots.Curve {
+	if len(sw.Steps) == 0 {
+		return nil
+	}
+	var out []plots.Curve
+	add := func(name string, get func(*montecarlo.Result) montecarlo.Interval) {
+		c := plots.Curve{Name: name}
+		for _, st := range sw.Steps {
+			iv := get(st.Result)
+			c.X = append(c.X, st.X)
+			c.P, c.Lo, c.Hi = append(c.P, iv.P), append(c.Lo, iv.Lo), append(c.Hi, iv.Hi)
+			c.UpperOnly = append(c.UpperOnly, iv.UpperOnly)
+		}
+		out = append(out, c)
+	}
+	for i, m := range sw.Steps[0].Result.Modes {
+		i := i
+		add(m.Mode.Key(), func(r *montecarlo.Result) montecarlo.Interval { return r.Modes[i].Interval })
+	}
+	add("any mode", func(r *montecarlo.Result) montecarlo.Interval { return r.Any })
+	return out
+}
+
+// CurveFigure draws the reliability curve of a sweep.
+func CurveFigure(s *scenario.Scenario, sw *montecarlo.Sweep, target float64, sys units.System, file, title string) (Figure, plots.CurveSpec, error) {
+	spec := plots.CurveSpec{Title: title + " (" + titleOf(s) + ")", Curves: Curves(sw), Target: target, Scale: 1}
+	v := sw.Vary
+	switch v.Kind {
+	case montecarlo.VaryInput:
+		dim := scenario.FieldDim(v.Path)
+		u, f := sys.Unit(dim)
+		if dim == units.Force {
+			u, f = forceUnit(sys)
+		}
+		spec.Scale = f
+		spec.XLabel = fmt.Sprintf("nominal %s (%s)", v.Path, u)
+		if u == "" {
+			spec.XLabel = "nominal " + v.Path
+		}
+	case montecarlo.VaryLoad:
+		spec.XLabel = "multiplier on the service loads (1 = scenario)"
+	case montecarlo.VarySpread:
+		spec.XLabel = "multiplier on the scatter of " + v.Path + " (1 = scenario)"
+	}
+	caption := "Failure probability of each mode (log scale) with its confidence band; downward triangles are upper bounds where no sample failed."
+	if target > 0 {
+		w := montecarlo.FindWindow(sw, target, false)
+		if w.Found {
+			spec.Window = [2]float64{w.Lo, w.Hi}
+			caption += fmt.Sprintf(" The shaded window meets the target %.3g.", target)
+		} else {
+			caption += fmt.Sprintf(" No value in the range meets the target %.3g.", target)
+		}
+	}
+	p, _, err := plots.CurvePlot(spec)
+	if err != nil {
+		return Figure{}, spec, err
+	}
+	f, err := figure(p, file, caption)
+	return f, spec, err
+}
+
+// CompareFigures draws the preload overlay of the variants and their
+// per-mode probabilities side by side.
+func CompareFigures(names []string, pr *montecarlo.Paired, sys units.System) ([]Figure, error) {
+	unit, scale := forceUnit(sys)
+	var ov []plots.Overlay
+	for i, r := range pr.Variants {
+		ov = append(ov, plots.Overlay{Name: names[i], Hist: Hist(&r.Q[montecarlo.QPreload])})
+	}
+	p, err := plots.OverlayPlot("Residual preload per bolt, by variant", "residual preload ("+unit+")", scale, 60, ov)
+	if err != nil {
+		return nil, err
+	}
+	f1, err := figure(p, "compare-preload.png", "Distribution of the residual preload of every bolt for each variant (the same draws of every shared input).")
+	if err != nil {
+		return nil, err
+	}
+	var groups []plots.Group
+	add := func(name string, get func(*montecarlo.Result) montecarlo.Interval) {
+		g := plots.Group{Name: name}
+		for _, r := range pr.Variants {
+			iv := get(r)
+			g.P, g.Lo, g.Hi, g.UpperOnly = append(g.P, iv.P), append(g.Lo, iv.Lo), append(g.Hi, iv.Hi), append(g.UpperOnly, iv.UpperOnly)
+		}
+		groups = append(groups, g)
+	}
+	for i, m := range pr.Modes {
+		i := i
+		add(m.Key(), func(r *montecarlo.Result) montecarlo.Interval { return r.Modes[i].Interval })
+	}
+	add("any", func(r *montecarlo.Result) montecarlo.Interval { return r.Any })
+	p, err = plots.GroupPlot("Failure probability by mode and variant", names, groups)
+	if err != nil {
+		return nil, err
+	}
+	f2, err := figure(p, "compare-modes.png", "Failure probability of each mode for each variant with its confidence interval (log scale).")
+	if err != nil {
+		return nil, err
+	}
+	return []Figure{f1, f2}, nil
+}
+
+// WriteOutputs writes the review's pictures, report.md and report.html into
+// dir (created if missing). It refuses to overwrite any of the protected
+// input files and writes every file atomically.
+func WriteOutputs(dir string, r *Review, protect []string) ([]string, error) {
+	if err := os.MkdirAll(dir, 0o755); err != nil {
+		return nil, fmt.Errorf("cannot create output folder: %w", err)
+	}
+	type out struct {
+		name  string
+		write func(io.Writer) error
+	}
+	var outs []out
+	for _, f := range r.Figures {
+		f := f
+		outs = append(outs, out{f.File, func(w io.Writer) error { _, err := w.Write(f.PNG); return err }})
+	}
+	outs = append(outs, out{"report.md", r.WriteMarkdown}, out{"report.html", r.WriteHTML})
+	for _, o := range outs {
+		p := filepath.Join(dir, o.name)
+		st, err := os.Stat(p)
+		if err != nil {
+			continue
+		}
+		for _, in := range protect {
+			if ist, err := os.Stat(in); err == nil && os.SameFile(st, ist) {
+				return nil, fmt.Errorf("refusing to write %s: it is the input file %s", p, in)
+			}
+		}
+	}
+	var written []string
+	for _, o := range outs {
+		p := filepath.Join(dir, o.name)
+		if err := plots.WriteAtomic(p, o.write); err != nil {
+			return written, err
+		}
+		written = append(written, p)
+	}
+	return written, nil
+}

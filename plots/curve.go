@@ -1,0 +1,286 @@
+package plots
+
+import (
+	"fmt"
+	"math"
+	"strconv"
+
+	"gonum.org/v1/plot"
+	"gonum.org/v1/plot/plotter"
+	"gonum.org/v1/plot/vg"
+	"gonum.org/v1/plot/vg/draw"
+)
+
+// Curve is one failure probability against the varied value.
+type Curve struct {
+	Name      string
+	X         []float64 // in the data's units
+	P, Lo, Hi []float64
+	// UpperOnly marks points where no sample failed: only the upper bound
+	// Hi is known, drawn as a downward triangle.
+	UpperOnly []bool
+}
+
+// CurveSpec describes a reliability-curve picture.
+type CurveSpec struct {
+	Title, XLabel string
+	Scale         float64 // x values are divided by Scale for display
+	Curves        []Curve
+	Target        float64    // horizontal target line (0: none)
+	Window        [2]float64 // shaded window of x (data units); equal ends: none
+}
+
+// Point is a plotted point of a curve, in display units.
+type Point struct {
+	X, P, Lo, Hi float64
+	UpperOnly    bool
+}
+
+// CurvePlot draws failure probabilities on a log scale against the varied
+// value, with interval bands, the target line and the window. It returns
+// the points drawn per curve so that callers can check them. Points with no
+// failure show their upper bound as a downward triangle; a curve without
+// any failure is therefore still visible.
+func CurvePlot(s CurveSpec) (*plot.Plot, [][]Point, error) {
+	if s.Scale == 0 {
+		s.Scale = 1
+	}
+	p := newPlot(s.Title, s.XLabel, "failure probability")
+	p.Y.Scale = plot.LogScale{}
+	p.Y.Tick.Marker = probTicks{}
+	p.Legend.Top, p.Legend.Left = true, false
+	floor, ceil := math.Inf(1), 0.0
+	for _, c := range s.Curves {
+		for i := range c.X {
+			for _, v := range []float64{c.P[i], c.Lo[i], c.Hi[i]} {
+				if v > 0 {
+					floor = math.Min(floor, v)
+					ceil = math.Max(ceil, v)
+				}
+			}
+		}
+	}
+	if s.Target > 0 {
+		floor, ceil = math.Min(floor, s.Target), math.Max(ceil, s.Target)
+	}
+	if math.IsInf(floor, 1) {
+		floor, ceil = 1e-6, 1
+	}
+	floor /= 3
+	ceil = math.Min(1, ceil*3)
+	xmin, xmax := math.Inf(1), math.Inf(-1)
+	var drawn [][]Point
+	if s.Window[1] > s.Window[0] {
+		a, b := s.Window[0]/s.Scale, s.Window[1]/s.Scale
+		band, err := plotter.NewPolygon(plotter.XYs{{X: a, Y: floor}, {X: b, Y: floor}, {X: b, Y: ceil}, {X: a, Y: ceil}})
+		if err != nil {
+			return nil, nil, err
+		}
+		band.Color = withAlpha(Palette[2], 40)
+		band.LineStyle.Width = 0
+		p.Add(band)
+		p.Legend.Add("window meeting the target", band)
+	}
+	for ci, c := range s.Curves {
+		col, dash, glyph := Series(ci)
+		var pts []Point
+		var line, bandTop, bandBot, ups plotter.XYs
+		for i := range c.X {
+			x := c.X[i] / s.Scale
+			xmin, xmax = math.Min(xmin, x), math.Max(xmax, x)
+			up := c.UpperOnly != nil && c.UpperOnly[i]
+			pts = append(pts, Point{X: x, P: c.P[i], Lo: c.Lo[i], Hi: c.Hi[i], UpperOnly: up})
+			if up {
+				ups = append(ups, plotter.XY{X: x, Y: math.Max(c.Hi[i], floor)})
+				continue
+			}
+			line = append(line, plotter.XY{X: x, Y: c.P[i]})
+			bandTop = append(bandTop, plotter.XY{X: x, Y: c.Hi[i]})
+			bandBot = append(bandBot, plotter.XY{X: x, Y: math.Max(c.Lo[i], floor)})
+		}
+		drawn = append(drawn, pts)
+		var thumbs []plot.Thumbnailer
+		if len(bandTop) > 1 {
+			ring := append(plotter.XYs{}, bandTop...)
+			for i := len(bandBot) - 1; i >= 0; i-- {
+				ring = append(ring, bandBot[i])
+			}
+			band, err := plotter.NewPolygon(ring)
+			if err != nil {
+				return nil, nil, err
+			}
+			band.Color = withAlpha(col, 45)
+			band.LineStyle.Width = 0
+			p.Add(band)
+		}
+		if len(line) > 0 {
+			l, sc, err := plotter.NewLinePoints(line)
+			if err != nil {
+				return nil, nil, err
+			}
+			l.Color, l.Dashes, l.Width = col, dash, vg.Points(2)
+			sc.Color, sc.Shape, sc.Radius = col, glyph, vg.Points(3.5)
+			p.Add(l, sc)
+			thumbs = append(thumbs, l, sc)
+		}
+		if len(ups) > 0 {
+			sc, err := plotter.NewScatter(ups)
+			if err != nil {
+				return nil, nil, err
+			}
+			sc.Color, sc.Shape, sc.Radius = col, downTriangle{}, vg.Points(4)
+			p.Add(sc)
+			if len(thumbs) == 0 {
+				thumbs = append(thumbs, sc)
+			}
+		}
+		name := c.Name
+		if len(line) == 0 {
+			name += " (no failures: upper bounds)"
+		}
+		p.Legend.Add(name, thumbs...)
+	}
+	if s.Target > 0 {
+		l, err := plotter.NewLine(plotter.XYs{{X: xmin, Y: s.Target}, {X: xmax, Y: s.Target}})
+		if err != nil {
+			return nil, nil, err
+		}
+		l.Color, l.Dashes, l.Width = Palette[6], []vg.Length{vg.Points(5), vg.Points(3)}, vg.Points(1.5)
+		p.Add(l)
+		p.Legend.Add("target", l)
+	}
+	entries := len(s.Curves) + 1
+	if s.Window[1] > s.Window[0] {
+		entries++
+	}
+	p.Y.Min, p.Y.Max = floor, logHeadroom(floor, ceil, entries)
+	if xmin < xmax {
+		p.X.Min, p.X.Max = xmin, xmax
+	}
+	return p, drawn, nil
+}
+
+// downTriangle marks an upper bound.
+type downTriangle struct{}
+
+func (downTriangle) DrawGlyph(c *draw.Canvas, sty draw.GlyphStyle, pt vg.Point) {
+	c.SetLineStyle(draw.LineStyle{Color: sty.Color, Width: vg.Points(1.2)})
+	r := sty.Radius
+	var path vg.Path
+	path.Move(vg.Point{X: pt.X - r, Y: pt.Y + r*0.6})
+	path.Line(vg.Point{X: pt.X + r, Y: pt.Y + r*0.6})
+	path.Line(vg.Point{X: pt.X, Y: pt.Y - r})
+	path.Close()
+	c.Stroke(path)
+}
+
+// Group is one mode of a side-by-side comparison: one probability per variant.
+type Group struct {
+	Name      string
+	P, Lo, Hi []float64
+	UpperOnly []bool
+}
+
+// GroupPlot draws, for each group (mode), the probability of each variant
+// side by side with its interval, on a log scale.
+func GroupPlot(title string, variants []string, groups []Group) (*plot.Plot, error) {
+	p := newPlot(title, "", "failure probability")
+	p.Y.Scale = plot.LogScale{}
+	p.Y.Tick.Marker = probTicks{}
+	floor, ceil := math.Inf(1), 0.0
+	for _, g := range groups {
+		for i := range g.P {
+			for _, v := range []float64{g.P[i], g.Lo[i], g.Hi[i]} {
+				if v > 0 {
+					floor, ceil = math.Min(floor, v), math.Max(ceil, v)
+				}
+			}
+		}
+	}
+	if math.IsInf(floor, 1) {
+		floor, ceil = 1e-6, 1
+	}
+	floor /= 3
+	ceil = math.Min(1, ceil*3)
+	nv := len(variants)
+	for vi, name := range variants {
+		col, _, glyph := Series(vi)
+		var pts, ups plotter.XYs
+		var errs plotter.YErrors
+		for gi, g := range groups {
+			x := float64(gi) + (float64(vi)-float64(nv-1)/2)*0.8/float64(nv)
+			if g.UpperOnly[vi] {
+				ups = append(ups, plotter.XY{X: x, Y: math.Max(g.Hi[vi], floor)})
+				continue
+			}
+			pts = append(pts, plotter.XY{X: x, Y: g.P[vi]})
+			errs = append(errs, struct{ Low, High float64 }{g.P[vi] - math.Max(g.Lo[vi], floor), g.Hi[vi] - g.P[vi]})
+		}
+		var thumbs []plot.Thumbnailer
+		if len(pts) > 0 {
+			sc, err := plotter.NewScatter(pts)
+			if err != nil {
+				return nil, err
+			}
+			sc.Color, sc.Shape, sc.Radius = col, glyph, vg.Points(4)
+			eb, err := plotter.NewYErrorBars(struct {
+				plotter.XYs
+				plotter.YErrors
+			}{pts, errs})
+			if err != nil {
+				return nil, err
+			}
+			eb.Color, eb.Width = col, vg.Points(1.5)
+			p.Add(eb, sc)
+			thumbs = append(thumbs, sc)
+		}
+		if len(ups) > 0 {
+			sc, err := plotter.NewScatter(ups)
+			if err != nil {
+				return nil, err
+			}
+			sc.Color, sc.Shape, sc.Radius = col, downTriangle{}, vg.Points(4.5)
+			p.Add(sc)
+			if len(thumbs) == 0 {
+				thumbs = append(thumbs, sc)
+			}
+		}
+		p.Legend.Add(name, thumbs...)
+	}
+	p.Legend.Add("open triangle pointing down: upper bound, no sample failed")
+	ticks := make([]plot.Tick, len(groups))
+	for i, g := range groups {
+		ticks[i] = plot.Tick{Value: float64(i), Label: g.Name}
+	}
+	p.X.Tick.Marker = plot.ConstantTicks(ticks)
+	p.X.Min, p.X.Max = -0.6, float64(len(groups))-0.4
+	p.Y.Min, p.Y.Max = floor, logHeadroom(floor, ceil, len(variants)+1)
+	return p, nil
+}
+
+// probTicks labels a log probability axis by decades ("1e-04", …, "1") and
+// leaves the headroom above 1, kept for the legend, unlabelled.
+type probTicks struct{}
+
+func (probTicks) Ticks(lo, hi float64) []plot.Tick {
+	var out []plot.Tick
+	for _, t := range (plot.LogTicks{}).Ticks(lo, hi) {
+		if t.Value > 1*(1+1e-9) {
+			continue
+		}
+		if t.Label != "" {
+			e := math.Round(math.Log10(t.Value))
+			t.Value = math.Pow(10, e)
+			switch {
+			case e == 0:
+				t.Label = "1"
+			case e >= -3:
+				t.Label = strconv.FormatFloat(t.Value, 'f', -1, 64)
+			default:
+				t.Label = fmt.Sprintf("1e%d", int(e))
+			}
+		}
+		out = append(out, t)
+	}
+	return out
+}

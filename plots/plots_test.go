@@ -1,0 +1,141 @@
+package plots
+
+import (
+	"bytes"
+	"image/png"
+	"io"
+	"math"
+	"os"
+	"path/filepath"
+	"testing"
+
+	"gonum.org/v1/plot"
+)
+
+func sampleHist() Hist {
+	h := Hist{Lo: 0, Hi: 40, Counts: make([]int64, 400), Under: 3, Over: 5}
+	for i := range h.Counts {
+		x := float64(i)/10 - 20
+		h.Counts[i] = int64(1000 * math.Exp(-x*x/8))
+	}
+	return h
+}
+
+func TestBarsKeepCounts(t *testing.T) {
+	t.Parallel()
+	h := sampleHist()
+	var in int64
+	for _, c := range h.Counts {
+		in += c
+	}
+	bars := h.Bars(50, 1)
+	var got float64
+	for i, b := range bars {
+		got += b.Weight
+		if i > 0 && math.Abs(b.Min-bars[i-1].Max) > 1e-9 {
+			t.Fatalf("bars %d and %d do not meet", i-1, i)
+		}
+	}
+	if int64(got) != in || h.Total() != in+8 {
+		t.Errorf("bars hold %v samples, the histogram %d in range", got, in)
+	}
+	if len(bars) > 50 || bars[0].Weight == 0 || bars[len(bars)-1].Weight == 0 {
+		t.Errorf("%d bars, empty ends not trimmed", len(bars))
+	}
+	scaled := h.Bars(50, 1000)
+	if math.Abs(scaled[0].Min*1000-bars[0].Min) > 1e-9 {
+		t.Error("scale not applied to bin edges")
+	}
+}
+
+func TestHistogramPlotPNG(t *testing.T) {
+	t.Parallel()
+	p, bars, err := HistogramPlot(HistSpec{Title: "t", XLabel: "x (kN)", Hist: sampleHist(), Scale: 1,
+		Markers: []Marker{{X: 10, Label: "low"}, {X: 1e6, Label: "far"}}, Notes: []string{"note"}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(bars) == 0 {
+		t.Fatal("no bars")
+	}
+	checkPNG(t, p)
+}
+
+func TestHistogramPlotEmpty(t *testing.T) {
+	t.Parallel()
+	p, bars, err := HistogramPlot(HistSpec{Title: "empty", Hist: Hist{Lo: 0, Hi: 1, Counts: make([]int64, 10), Over: 7}})
+	if err != nil || len(bars) != 0 {
+		t.Fatalf("empty histogram: %v, %d bars", err, len(bars))
+	}
+	checkPNG(t, p)
+}
+
+func TestCurvePlotPoints(t *testing.T) {
+	t.Parallel()
+	c := Curve{Name: "separation", X: []float64{1, 2, 3}, P: []float64{1e-2, 1e-4, 0}, Lo: []float64{8e-3, 5e-5, 0}, Hi: []float64{1.2e-2, 2e-4, 3e-6}, UpperOnly: []bool{false, false, true}}
+	none := Curve{Name: "slip", X: []float64{1, 2, 3}, P: []float64{0, 0, 0}, Lo: []float64{0, 0, 0}, Hi: []float64{3e-6, 3e-6, 3e-6}, UpperOnly: []bool{true, true, true}}
+	p, drawn, err := CurvePlot(CurveSpec{Title: "t", XLabel: "x", Curves: []Curve{c, none}, Target: 1e-3, Window: [2]float64{1.5, 3}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	for i, pt := range drawn[0] {
+		if pt.X != c.X[i] || pt.P != c.P[i] || pt.Hi != c.Hi[i] || pt.UpperOnly != c.UpperOnly[i] {
+			t.Errorf("point %d: drew %+v", i, pt)
+		}
+	}
+	if len(drawn[1]) != 3 {
+		t.Error("a curve without failures must still be drawn (upper bounds)")
+	}
+	checkPNG(t, p)
+	g, err := GroupPlot("g", []string{"a", "b"}, []Group{{Name: "m", P: []float64{1e-3, 0}, Lo: []float64{5e-4, 0}, Hi: []float64{2e-3, 1e-5}, UpperOnly: []bool{false, true}}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	checkPNG(t, g)
+	o, err := OverlayPlot("o", "x", 1, 40, []Overlay{{"a", sampleHist()}, {"b", Hist{Lo: 0, Hi: 1, Counts: make([]int64, 4)}}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	checkPNG(t, o)
+}
+
+// checkPNG renders a plot, decodes it and checks its size: 8 × 5 in at the
+// renderer's 96 dpi.
+func checkPNG(t *testing.T, p *plot.Plot) {
+	t.Helper()
+	b, err := PNG(p)
+	if err != nil {
+		t.Fatal(err)
+	}
+	img, err := png.Decode(bytes.NewReader(b))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if r := img.Bounds(); r.Dx() != 768 || r.Dy() != 480 {
+		t.Errorf("PNG is %dx%d, want 768x480", r.Dx(), r.Dy())
+	}
+}
+
+func TestWriteAtomic(t *testing.T) {
+	t.Parallel()
+	dir := t.TempDir()
+	path := filepath.Join(dir, "out.txt")
+	if err := WriteAtomic(path, func(w io.Writer) error { _, err := w.Write([]byte("ok")); return err }); err != nil {
+		t.Fatal(err)
+	}
+	if b, _ := os.ReadFile(path); string(b) != "ok" {
+		t.Errorf("content %q", b)
+	}
+	// A failing writer leaves the old file alone and no temporary behind.
+	err := WriteAtomic(path, func(w io.Writer) error { w.Write([]byte("half")); return os.ErrClosed })
+	if err == nil {
+		t.Fatal("want error")
+	}
+	if b, _ := os.ReadFile(path); string(b) != "ok" {
+		t.Errorf("failed write changed the file: %q", b)
+	}
+	ents, _ := os.ReadDir(dir)
+	if len(ents) != 1 {
+		t.Errorf("temporary files left: %v", ents)
+	}
+}
