@@ -196,8 +196,8 @@ type Window struct {
 	// the most probable mode alone.
 	LoModes, HiModes       []model.Mode
 	LoCombined, HiCombined bool
-	Best, BestP      float64 // step with the least any-mode probability
-	Conservative     bool    // built from the upper confidence bounds
+	Best, BestP            float64 // step with the least any-mode probability
+	Conservative           bool    // built from the upper confidence bounds
 }
 
 // FindWindow returns the window of a sweep for a target probability, using

@@ -78,7 +78,9 @@ func pairs(ps [][2]string) [][]string {
 	return out
 }
 
-func mdEscape(s string) string { return strings.NewReplacer("|", "\\|", "*", "\\*", "_", "\\_").Replace(s) }
+func mdEscape(s string) string {
+	return strings.NewReplacer("|", "\\|", "*", "\\*", "_", "\\_").Replace(s)
+}
 
 func writeMDTable(b *strings.Builder, t *Table) {
 	b.WriteString("| " + strings.Join(escapeAll(t.Header), " | ") + " |\n|")

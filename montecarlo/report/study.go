@@ -39,10 +39,10 @@ type TargetWindowDoc struct {
 	UpperBoundModes []string `json:"modes_bounding_upper"`
 	// Set when no single mode exceeds the target beyond that end, only the
 	// joint as a whole; the list then names the largest contributor.
-	LowerCombined bool `json:"lower_bounded_by_combination"`
-	UpperCombined bool `json:"upper_bounded_by_combination"`
-	Best            float64  `json:"least_any_mode_at"`
-	BestProbability float64  `json:"least_any_mode_probability"`
+	LowerCombined   bool    `json:"lower_bounded_by_combination"`
+	UpperCombined   bool    `json:"upper_bounded_by_combination"`
+	Best            float64 `json:"least_any_mode_at"`
+	BestProbability float64 `json:"least_any_mode_probability"`
 }
 
 // SpreadDoc answers the inverse question: how much scatter still meets the target.
