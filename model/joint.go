@@ -278,7 +278,17 @@ func EvaluateBolt(in *Inputs, s *Stiffness, set ModeSet, b *BoltResult) {
 	}
 	if pmax > pmin {
 		b.Demand[Fatigue] = phi * (pmax - pmin) * 0.5 * s.invAs
-		b.Capacity[Fatigue] = StrengthAmplitude(in.Criterion, in.Endurance, in.Tensile, in.Proof, fi*s.invAs, (pmax+pmin)/(pmax-pmin))
+		si, q := fi*s.invAs, (pmax+pmin)/(pmax-pmin)
+		if in.Criterion == Goodman {
+			// Inline form of StrengthAmplitude's Goodman case (Shigley Eq. 8-38).
+			sa := in.Endurance * (in.Tensile - si) / (in.Tensile + q*in.Endurance)
+			if !(sa > 0) {
+				sa = 0
+			}
+			b.Capacity[Fatigue] = sa
+		} else {
+			b.Capacity[Fatigue] = StrengthAmplitude(in.Criterion, in.Endurance, in.Tensile, in.Proof, si, q)
+		}
 	} else {
 		b.Demand[Fatigue], b.Capacity[Fatigue] = 0, 0
 	}
@@ -352,7 +362,9 @@ func EvaluateJoint(in *Inputs, s *Stiffness, bolts []BoltResult, out *Outcome) {
 		}
 		out.Invalid = out.Invalid || bolts[i].Invalid
 	}
-	clamp *= float64(in.Bolts) / float64(len(bolts))
+	if len(bolts) != in.Bolts {
+		clamp *= float64(in.Bolts) / float64(len(bolts))
+	}
 	out.ClampSum = clamp
 	if len(bolts) == 1 {
 		out.Demand[AssemblyYield], out.Capacity[AssemblyYield] = bolts[0].Demand[AssemblyYield], bolts[0].Capacity[AssemblyYield]

@@ -11,24 +11,33 @@ import (
 // group is a set of inputs drawn together: either the shared inputs of a
 // sample or the per-bolt inputs of one bolt.
 type group struct {
-	dists  []Dist
-	ptrs   []*float64
+	items  []drawItem
 	copula *Copula // nil when the group is uncorrelated
 	eps    []float64
+}
+
+// drawItem is one input of a group, laid out for the sampling loop: the
+// normal and lognormal parameters inline, the full distribution behind a
+// pointer for the other families.
+type drawItem struct {
+	kind Kind
+	a, b float64
+	ptr  *float64
+	dist *Dist
 }
 
 // draw writes one set of values through the group's pointers.
 func (g *group) draw(r *rand.Rand) {
 	if g.copula == nil {
-		for i := range g.dists {
-			d := &g.dists[i]
-			switch d.Kind {
+		for i := range g.items {
+			it := &g.items[i]
+			switch it.kind {
 			case Normal:
-				*g.ptrs[i] = d.A + d.B*r.NormFloat64()
+				*it.ptr = it.a + it.b*r.NormFloat64()
 			case LogNormal:
-				*g.ptrs[i] = math.Exp(d.A + d.B*r.NormFloat64())
+				*it.ptr = math.Exp(it.a + it.b*r.NormFloat64())
 			default:
-				*g.ptrs[i] = d.FromUniform(r.Float64())
+				*it.ptr = it.dist.FromUniform(r.Float64())
 			}
 		}
 		return
@@ -37,8 +46,8 @@ func (g *group) draw(r *rand.Rand) {
 		g.eps[i] = r.NormFloat64()
 	}
 	g.copula.Mix(g.eps)
-	for i := range g.dists {
-		*g.ptrs[i] = g.dists[i].FromNormal(g.eps[i])
+	for i := range g.items {
+		*g.items[i].ptr = g.items[i].dist.FromNormal(g.eps[i])
 	}
 }
 
@@ -103,8 +112,8 @@ func newPlan(p *Problem) (*plan, error) {
 func (pl *plan) newGroup(p *Problem, idx []int, corr []Correlation, in *model.Inputs) (group, error) {
 	g := group{}
 	for _, i := range idx {
-		g.dists = append(g.dists, p.Vars[i].Dist)
-		g.ptrs = append(g.ptrs, p.Vars[i].Field(in))
+		d := p.Vars[i].Dist
+		g.items = append(g.items, drawItem{kind: d.Kind, a: d.A, b: d.B, ptr: p.Vars[i].Field(in), dist: &d})
 	}
 	if len(corr) > 0 {
 		c, err := NewCopula(len(idx), corr)
