@@ -16,24 +16,13 @@ import (
 
 // CompareOptions are the options of `boltrisk compare`.
 type CompareOptions struct {
-	Out, ErrOut io.Writer
-	Files       []string
-	Example     string
-	JSON        bool
-	Units       string
-	UnitsOn     bool
-	Run         runFlags
-	Output      outFlags
-}
-
-func init() {
-	extraCommands = append(extraCommands, func(stdout, stderr io.Writer) *cobra.Command {
-		return newCompareCmd(stdout, stderr, nil)
-	})
+	common
+	Run    runFlags
+	Output outFlags
 }
 
 func newCompareCmd(stdout, stderr io.Writer, runF func(context.Context, *CompareOptions) error) *cobra.Command {
-	opts := &CompareOptions{Out: stdout, ErrOut: stderr}
+	opts := &CompareOptions{common: common{Out: stdout, ErrOut: stderr}}
 	cmd := &cobra.Command{
 		Use:   "compare FILE [FILE…]",
 		Short: "Compare assembly variants (dry vs oiled, wrench vs angle control) with paired samples",
@@ -54,17 +43,14 @@ same service loads; anything else (condition, tool, torque, class…) may differ
 		Example: `  boltrisk compare --example cover-flange
   boltrisk compare dry.yaml oiled.yaml paste.yaml --samples 2e6`,
 		RunE: func(cmd *cobra.Command, args []string) error {
-			opts.Files = args
-			opts.UnitsOn = cmd.Flags().Changed("units")
+			opts.bind(cmd, args)
 			if runF != nil {
 				return runF(cmd.Context(), opts)
 			}
 			return runCompare(cmd.Context(), opts)
 		},
 	}
-	cmd.Flags().StringVar(&opts.Example, "example", "", "use a built-in example scenario (with variants) instead of FILE")
-	cmd.Flags().BoolVar(&opts.JSON, "json", false, "write the result as JSON (SI units, schema in README)")
-	cmd.Flags().StringVar(&opts.Units, "units", "si", "units of the text report: si or us")
+	opts.addFlags(cmd)
 	opts.Run.add(cmd, false)
 	opts.Output.add(cmd)
 	return cmd
@@ -119,11 +105,11 @@ func label(s *scenario.Scenario) string {
 }
 
 func runCompare(ctx context.Context, opts *CompareOptions) error {
-	ss, names, err := loadVariants(opts.Files, opts.Example)
+	ss, names, err := loadVariants(opts.File, opts.Example)
 	if err != nil {
 		return err
 	}
-	sys, err := parseUnits(opts.Units, ss[0], opts.UnitsOn)
+	sys, err := opts.system(ss[0])
 	if err != nil {
 		return err
 	}

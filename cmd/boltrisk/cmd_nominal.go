@@ -10,16 +10,11 @@ import (
 
 // NominalOptions are the options of `boltrisk nominal`.
 type NominalOptions struct {
-	Out     io.Writer
-	File    []string
-	Example string
-	JSON    bool
-	Units   string
-	UnitsOn bool
+	common
 }
 
 func newNominalCmd(stdout io.Writer, runF func(*NominalOptions) error) *cobra.Command {
-	opts := &NominalOptions{Out: stdout}
+	opts := &NominalOptions{common: common{Out: stdout}}
 	cmd := &cobra.Command{
 		Use:   "nominal [FILE]",
 		Short: "Deterministic check of a joint at its nominal inputs",
@@ -32,26 +27,19 @@ capacity and safety factor of every failure mode.
   boltrisk nominal --example us-flange --units si --json`,
 		Args: cobra.MaximumNArgs(1),
 		RunE: func(cmd *cobra.Command, args []string) error {
-			opts.File = args
-			opts.UnitsOn = cmd.Flags().Changed("units")
+			opts.bind(cmd, args)
 			if runF != nil {
 				return runF(opts)
 			}
 			return runNominal(opts)
 		},
 	}
-	cmd.Flags().StringVar(&opts.Example, "example", "", "use a built-in example scenario instead of FILE")
-	cmd.Flags().BoolVar(&opts.JSON, "json", false, "write the result as JSON (SI units, schema in README)")
-	cmd.Flags().StringVar(&opts.Units, "units", "si", "units of the text report: si or us (default: the scenario's)")
+	opts.addFlags(cmd)
 	return cmd
 }
 
 func runNominal(opts *NominalOptions) error {
-	s, err := loadScenario(opts.File, opts.Example)
-	if err != nil {
-		return err
-	}
-	sys, err := parseUnits(opts.Units, s, opts.UnitsOn)
+	s, sys, err := opts.scenario()
 	if err != nil {
 		return err
 	}

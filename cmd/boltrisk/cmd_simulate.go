@@ -14,26 +14,15 @@ import (
 
 // SimulateOptions are the options of `boltrisk simulate`.
 type SimulateOptions struct {
-	Out, ErrOut io.Writer
-	File        []string
-	Example     string
-	JSON        bool
-	Units       string
-	UnitsOn     bool
-	Run         runFlags
-	Output      outFlags
-	LoadCurve   string
-	LoadSteps   int
-}
-
-func init() {
-	extraCommands = append(extraCommands, func(stdout, stderr io.Writer) *cobra.Command {
-		return newSimulateCmd(stdout, stderr, nil)
-	})
+	common
+	Run       runFlags
+	Output    outFlags
+	LoadCurve string
+	LoadSteps int
 }
 
 func newSimulateCmd(stdout, stderr io.Writer, runF func(context.Context, *SimulateOptions) error) *cobra.Command {
-	opts := &SimulateOptions{Out: stdout, ErrOut: stderr}
+	opts := &SimulateOptions{common: common{Out: stdout, ErrOut: stderr}}
 	cmd := &cobra.Command{
 		Use:   "simulate [FILE]",
 		Short: "Monte Carlo: probability of each failure mode with confidence bounds",
@@ -52,17 +41,14 @@ Results are reproducible: the same --seed gives identical numbers for any
   boltrisk simulate --example cover-flange --out review --load-curve 0.5..2`,
 		Args: cobra.MaximumNArgs(1),
 		RunE: func(cmd *cobra.Command, args []string) error {
-			opts.File = args
-			opts.UnitsOn = cmd.Flags().Changed("units")
+			opts.bind(cmd, args)
 			if runF != nil {
 				return runF(cmd.Context(), opts)
 			}
 			return runSimulate(cmd.Context(), opts)
 		},
 	}
-	cmd.Flags().StringVar(&opts.Example, "example", "", "use a built-in example scenario instead of FILE (see 'boltrisk example')")
-	cmd.Flags().BoolVar(&opts.JSON, "json", false, "write the result as JSON (SI units, schema in README)")
-	cmd.Flags().StringVar(&opts.Units, "units", "si", "units of the text report: si or us (default: the scenario's)")
+	opts.addFlags(cmd)
 	opts.Run.add(cmd, true)
 	opts.Output.add(cmd)
 	cmd.Flags().StringVar(&opts.LoadCurve, "load-curve", "", "with --out: also draw the probability of each mode against a multiplier LO..HI on the service loads, e.g. 0.5..2")
@@ -71,11 +57,7 @@ Results are reproducible: the same --seed gives identical numbers for any
 }
 
 func runSimulate(ctx context.Context, opts *SimulateOptions) error {
-	s, err := loadScenario(opts.File, opts.Example)
-	if err != nil {
-		return err
-	}
-	sys, err := parseUnits(opts.Units, s, opts.UnitsOn)
+	s, sys, err := opts.scenario()
 	if err != nil {
 		return err
 	}
@@ -120,7 +102,7 @@ func runSimulate(ctx context.Context, opts *SimulateOptions) error {
 }
 
 func writeSimulationReview(ctx context.Context, opts *SimulateOptions, s *scenario.Scenario, res *montecarlo.Result, doc report.SimDoc, set montecarlo.Settings) error {
-	sys, _ := parseUnits(opts.Units, s, opts.UnitsOn)
+	sys, _ := opts.system(s)
 	pf, _, err := report.PreloadFigure(s, res, sys)
 	if err != nil {
 		return err

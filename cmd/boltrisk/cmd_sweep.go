@@ -16,28 +16,17 @@ import (
 
 // SweepOptions are the options of `boltrisk sweep`.
 type SweepOptions struct {
-	Out, ErrOut io.Writer
-	File        []string
-	Example     string
-	JSON        bool
-	Units       string
-	UnitsOn     bool
-	Vary        string
-	Steps       int
-	Target      float64
-	MaxScatter  string
-	Run         runFlags
-	Output      outFlags
-}
-
-func init() {
-	extraCommands = append(extraCommands, func(stdout, stderr io.Writer) *cobra.Command {
-		return newSweepCmd(stdout, stderr, nil)
-	})
+	common
+	Vary       string
+	Steps      int
+	Target     float64
+	MaxScatter string
+	Run        runFlags
+	Output     outFlags
 }
 
 func newSweepCmd(stdout, stderr io.Writer, runF func(context.Context, *SweepOptions) error) *cobra.Command {
-	opts := &SweepOptions{Out: stdout, ErrOut: stderr}
+	opts := &SweepOptions{common: common{Out: stdout, ErrOut: stderr}}
 	cmd := &cobra.Command{
 		Use:   "sweep [FILE] --vary INPUT=LO..HI[UNIT]",
 		Short: "Failure probabilities against a varied input; torque window for a target",
@@ -67,8 +56,7 @@ the largest scatter of INPUT (at the scenario's nominal values) that still meets
   boltrisk sweep joint.yaml --max-scatter tightening.torque --target 1e-4`,
 		Args: cobra.MaximumNArgs(1),
 		RunE: func(cmd *cobra.Command, args []string) error {
-			opts.File = args
-			opts.UnitsOn = cmd.Flags().Changed("units")
+			opts.bind(cmd, args)
 			if runF != nil {
 				return runF(cmd.Context(), opts)
 			}
@@ -76,9 +64,7 @@ the largest scatter of INPUT (at the scenario's nominal values) that still meets
 		},
 	}
 	fl := cmd.Flags()
-	fl.StringVar(&opts.Example, "example", "", "use a built-in example scenario instead of FILE")
-	fl.BoolVar(&opts.JSON, "json", false, "write the result as JSON (SI units, schema in README)")
-	fl.StringVar(&opts.Units, "units", "si", "units of the text report: si or us (default: the scenario's)")
+	opts.addFlags(cmd)
 	fl.StringVar(&opts.Vary, "vary", "", "what to vary: INPUT=LO..HI[UNIT], load=LO..HI or spread:INPUT=LO..HI")
 	fl.IntVar(&opts.Steps, "steps", 11, "number of equally spaced values, ≥ 2")
 	fl.Float64Var(&opts.Target, "target", 0, "target failure probability in (0, 1): report the window that meets it")
@@ -151,11 +137,7 @@ func splitUnit(s string) (num, unit string) {
 }
 
 func runSweep(ctx context.Context, opts *SweepOptions) error {
-	s, err := loadScenario(opts.File, opts.Example)
-	if err != nil {
-		return err
-	}
-	sys, err := parseUnits(opts.Units, s, opts.UnitsOn)
+	s, sys, err := opts.scenario()
 	if err != nil {
 		return err
 	}

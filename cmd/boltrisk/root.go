@@ -97,17 +97,14 @@ the torque, tolerance and lubrication that make it safe.
 	root.SetFlagErrorFunc(func(c *cobra.Command, err error) error { return usageError{err} })
 	root.AddCommand(
 		newNominalCmd(stdout, nil),
+		newSimulateCmd(stdout, stderr, nil),
+		newSweepCmd(stdout, stderr, nil),
+		newCompareCmd(stdout, stderr, nil),
 		newCatalogCmd(stdout),
 		newExampleCmd(stdout),
 	)
-	for _, c := range extraCommands {
-		root.AddCommand(c(stdout, stderr))
-	}
 	return root
 }
-
-// extraCommands lets later files register analysis commands.
-var extraCommands []func(stdout, stderr io.Writer) *cobra.Command
 
 // loadScenario reads FILE or the built-in example named by --example.
 func loadScenario(args []string, example string) (*scenario.Scenario, error) {
@@ -122,13 +119,47 @@ func loadScenario(args []string, example string) (*scenario.Scenario, error) {
 	return nil, usagef("a scenario FILE is required (or --example NAME; built-in examples: %v)", scenario.Examples())
 }
 
-func parseUnits(s string, sc *scenario.Scenario, changed bool) (units.System, error) {
-	if !changed {
+// common holds what every analysis command shares: its writers, the
+// scenario source and the output format flags.
+type common struct {
+	Out, ErrOut io.Writer
+	File        []string
+	Example     string
+	JSON        bool
+	Units       string
+	UnitsOn     bool
+}
+
+func (c *common) addFlags(cmd *cobra.Command) {
+	cmd.Flags().StringVar(&c.Example, "example", "", "use a built-in example scenario instead of FILE (see 'boltrisk example')")
+	cmd.Flags().BoolVar(&c.JSON, "json", false, "write the result as JSON (SI units, schema in README)")
+	cmd.Flags().StringVar(&c.Units, "units", "si", "units of the text report: si or us (default: the scenario's)")
+}
+
+// bind records the arguments and which flags were set; call it in RunE.
+func (c *common) bind(cmd *cobra.Command, args []string) {
+	c.File = args
+	c.UnitsOn = cmd.Flags().Changed("units")
+}
+
+// system returns the display units: --units if given, else the scenario's.
+func (c *common) system(sc *scenario.Scenario) (units.System, error) {
+	if !c.UnitsOn {
 		return sc.Units, nil
 	}
-	sys, err := units.ParseSystem(s)
+	sys, err := units.ParseSystem(c.Units)
 	if err != nil {
 		return 0, usagef("--units: %v", err)
 	}
 	return sys, nil
+}
+
+// scenario loads FILE or --example and resolves the display units.
+func (c *common) scenario() (*scenario.Scenario, units.System, error) {
+	s, err := loadScenario(c.File, c.Example)
+	if err != nil {
+		return nil, 0, err
+	}
+	sys, err := c.system(s)
+	return s, sys, err
 }

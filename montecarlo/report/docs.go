@@ -131,16 +131,7 @@ func SweepReview(s *scenario.Scenario, doc SweepDoc, figs []Figure, prov Provena
 		return r
 	}
 	v := doc.Vary
-	dim := units.None
-	if v.Kind == "value" {
-		dim = scenario.FieldDim(v.Input)
-	}
-	fx := func(x float64) string {
-		if dim == units.None {
-			return "×" + units.Sig(x, 3)
-		}
-		return sys.Format(x, dim)
-	}
+	fx := v.formatter(sys)
 	r.Subtitle = fmt.Sprintf("Sweep of %s over %d values, %d samples per value, seed %d, the same random streams at every value.", v.Input, len(v.Values), doc.SamplesPerStep, doc.Seed)
 	t := &Table{Header: append([]string{v.Input}, doc.ModeOrder...)}
 	for _, st := range doc.Steps {

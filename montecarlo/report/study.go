@@ -139,6 +139,16 @@ func varyDoc(v *montecarlo.Vary) *VaryDoc {
 	return d
 }
 
+// formatter returns how to print a value of the varied quantity: with its
+// unit, or as a multiplier "×1.5".
+func (v *VaryDoc) formatter(sys units.System) func(float64) string {
+	if v.Kind != "value" {
+		return func(x float64) string { return "×" + units.Sig(x, 3) }
+	}
+	dim := scenario.FieldDim(v.Input)
+	return func(x float64) string { return sys.Format(x, dim) }
+}
+
 // internalUnit names the internal unit of a dimension (the unit of JSON values).
 func internalUnit(d units.Dim) string {
 	return map[units.Dim]string{units.Force: "N", units.Length: "mm", units.Stress: "MPa", units.Torque: "N*mm", units.Stiffness: "N/mm"}[d]
@@ -170,16 +180,7 @@ func WriteSweep(w io.Writer, s *scenario.Scenario, doc SweepDoc, sys units.Syste
 		return
 	}
 	v := doc.Vary
-	dim := units.None
-	if v.Kind == "value" {
-		dim = scenario.FieldDim(v.Input)
-	}
-	fx := func(x float64) string {
-		if dim == units.None {
-			return "×" + units.Sig(x, 3)
-		}
-		return sys.Format(x, dim)
-	}
+	fx := v.formatter(sys)
 	fmt.Fprintf(w, "\nVarying %s from %s to %s in %d steps; %d samples per step, seed %d, the same random streams at every step.\n",
 		v.Input, fx(v.Values[0]), fx(v.Values[len(v.Values)-1]), len(v.Values), doc.SamplesPerStep, doc.Seed)
 	tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', tabwriter.AlignRight)

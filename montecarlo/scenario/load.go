@@ -473,6 +473,14 @@ func (p *parser) dist(n *yaml.Node, path string, dim units.Dim) (montecarlo.Dist
 		k, err := sigmas()
 		return t / k, err
 	}
+	centerSpread := func() (float64, float64, error) {
+		c, _, err := center()
+		if err != nil {
+			return 0, 0, err
+		}
+		sd, err := spread(c)
+		return c, sd, err
+	}
 	only := func(allowed ...string) error {
 		for k := range vals {
 			if k != "dist" && !slices.Contains(allowed, k) {
@@ -491,11 +499,7 @@ func (p *parser) dist(n *yaml.Node, path string, dim units.Dim) (montecarlo.Dist
 		if err := only(allowed...); err != nil {
 			return d, err
 		}
-		c, _, err := center()
-		if err != nil {
-			return d, err
-		}
-		sd, err := spread(c)
+		c, sd, err := centerSpread()
 		if err != nil {
 			return d, err
 		}
@@ -598,11 +602,7 @@ func (p *parser) dist(n *yaml.Node, path string, dim units.Dim) (montecarlo.Dist
 			}
 			return d, nil
 		}
-		c, _, err := center()
-		if err != nil {
-			return d, err
-		}
-		sd, err := spread(c)
+		c, sd, err := centerSpread()
 		if err != nil {
 			return d, err
 		}
