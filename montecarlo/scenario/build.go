@@ -770,6 +770,16 @@ func (p *parser) buildVariants(base *Scenario, r rawDoc) error {
 		seen[name] = true
 		vr := r.clone()
 		vr.vars = nil
+		// A variant that changes the tightening method starts its tightening
+		// afresh: the base's torque, friction, preload and presets belong to
+		// the base's method.
+		for i := 0; i+1 < len(set.Content); i += 2 {
+			if set.Content[i].Value == "tightening.method" {
+				for _, k := range []string{"torque", "nut_factor", "thread_friction", "head_friction", "preload", "condition", "tool"} {
+					delete(vr.vals, "tightening."+k)
+				}
+			}
+		}
 		err = p.pairs(set, "variants.set", func(k, v *yaml.Node) error {
 			path := k.Value
 			sec, key, ok := strings.Cut(path, ".")

@@ -225,6 +225,16 @@ func TestVariants(t *testing.T) {
 	if s.Variants[1].ConditionName != "" || math.Abs(s.Variants[1].Inputs().NutFactor-0.12) > 1e-12 {
 		t.Errorf("paste variant: explicit K should replace the condition")
 	}
+	// A variant may change the tightening method: the base's torque and
+	// presets do not carry over.
+	angle := doc + "  - name: angle\n    set:\n      tightening.method: preload\n      tightening.preload: 40 kN\n      tightening.tool: angle-controlled\n"
+	sa, err := Parse("v.yaml", []byte(angle))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if a := sa.Variants[2]; a.Inputs().Method != model.DirectPreload || a.ConditionName != "" || a.ToolName != "angle-controlled" {
+		t.Errorf("angle variant: method %v, condition %q, tool %q", a.Inputs().Method, a.ConditionName, a.ToolName)
+	}
 	bad := doc + "  - name: broken\n    set:\n      tightening.torqe: 5 N*m\n"
 	if _, err := Parse("v.yaml", []byte(bad)); err == nil || !strings.Contains(err.Error(), `did you mean "tightening.torque"`) {
 		t.Errorf("want did-you-mean for a misspelled variant path, got %v", err)
