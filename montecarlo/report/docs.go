@@ -104,7 +104,8 @@ func SimulationReview(s *scenario.Scenario, doc SimDoc, figs []Figure, prov Prov
 			pt.Rows = append(pt.Rows, row)
 		}
 	}
-	r.Sections = append(r.Sections, Section{Heading: "Percentiles", Table: pt})
+	r.Sections = append(r.Sections, Section{Heading: "Percentiles", Table: pt,
+		Paragraphs: []string{"Forces over every bolt of every sample; safety factors of the joint, that is of its worst bolt in each sample."}})
 	r.Sections = append(r.Sections, warningsSection(doc.Warnings)...)
 	return r
 }

@@ -179,6 +179,9 @@ func WriteSimulation(w io.Writer, s *scenario.Scenario, doc SimDoc, sys units.Sy
 		tw.Flush()
 	}
 	fmt.Fprintln(w, "\nPercentiles")
+	if doc.BoltsPerSample > 1 {
+		fmt.Fprintln(w, "  (forces: every bolt of every sample; safety factors: the joint, i.e. its worst bolt)")
+	}
 	tw = tabwriter.NewWriter(w, 0, 0, 2, ' ', tabwriter.AlignRight)
 	fmt.Fprint(tw, "  quantity\t")
 	for _, l := range Levels {
