@@ -91,6 +91,11 @@ func Check(in *Inputs) []Warning {
 	if in.Tensile > 0 && in.Preload > 0 && in.Method == DirectPreload && in.Preload/in.Thread.StressArea >= in.Tensile {
 		add("tightening.preload", "preload stress reaches the tensile strength")
 	}
+	var o Outcome
+	Evaluate(in, &o)
+	if !(o.Bolt.Preload > 0) {
+		add("tightening.embedding", "no preload remains after embedding and relaxation (assembly preload %.4g N): the joint is loose", o.Bolt.AssemblyPreload)
+	}
 	w := PreloadWindow(in)
 	if w.Lower > w.Upper {
 		add("loads", "no preload satisfies both the lower limit %.4g N (separation/slip) and the upper limit %.4g N (proof/assembly yield)", w.Lower, w.Upper)

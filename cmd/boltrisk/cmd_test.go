@@ -162,3 +162,20 @@ func TestNominalFlags(t *testing.T) {
 		t.Errorf("options %+v", got)
 	}
 }
+
+func TestLooseJointStillReports(t *testing.T) {
+	// Embedding larger than the bolt's stretch leaves no preload: proof has
+	// no demand, its safety factor is infinite, and JSON has no infinity.
+	dir := t.TempDir()
+	f := filepath.Join(dir, "loose.yaml")
+	os.WriteFile(f, []byte("bolt: {thread: M12, class: \"8.8\"}\nmembers:\n  layers: [{thickness: 20 mm, material: steel}]\ntightening: {torque: 50 N*m, nut_factor: 0.2, embedding: 2 mm}\n"), 0o644)
+	for _, args := range [][]string{{"nominal", f, "--json"}, {"simulate", f, "--json", "--samples", "2000", "--quiet"}} {
+		code, out, errs := runCLI(args...)
+		if code != 0 || strings.Contains(out, "Inf") || strings.Contains(out, "NaN") {
+			t.Errorf("%s: exit %d %s", args[0], code, errs)
+		}
+		if !strings.Contains(out, "the joint is loose") {
+			t.Errorf("%s: no warning about the lost preload", args[0])
+		}
+	}
+}

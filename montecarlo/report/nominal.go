@@ -87,7 +87,7 @@ func Nominal(s *scenario.Scenario, version string) NominalDoc {
 		}
 		u, _ := units.SI.Unit(ModeDim(m))
 		doc.Modes[m.Key()] = ModeDoc{Title: m.Title(), Demand: o.Demand[m], Capacity: o.Capacity[m], Unit: u,
-			SafetyFactor: o.SafetyFactor(m), Margin: o.Margin(m), Fails: o.Fails(m)}
+			SafetyFactor: FiniteSF(o.SafetyFactor(m)), Margin: o.Margin(m), Fails: o.Fails(m)}
 		doc.ModeOrder = append(doc.ModeOrder, m.Key())
 	}
 	for _, wr := range s.Warnings {
@@ -178,6 +178,21 @@ func writeNominalBody(w io.Writer, doc NominalDoc, sys units.System) {
 		fmt.Fprintf(tw, "  %s\t%s\t%s\t%s\t%s\t\n", k, sys.Format(md.Demand, dim), sys.Format(md.Capacity, dim), fmtSF(md.SafetyFactor), res)
 	}
 	tw.Flush()
+}
+
+// SFCap stands for an infinite safety factor (a mode with no demand, such
+// as proof with neither preload nor load) in documents: JSON has no infinity.
+const SFCap = 1e9
+
+// FiniteSF caps a safety factor at SFCap and maps NaN to 0.
+func FiniteSF(v float64) float64 {
+	switch {
+	case math.IsNaN(v):
+		return 0
+	case v > SFCap:
+		return SFCap
+	}
+	return v
 }
 
 func fmtSF(v float64) string {

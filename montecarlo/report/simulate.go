@@ -3,7 +3,6 @@ package report
 import (
 	"fmt"
 	"io"
-	"math"
 	"text/tabwriter"
 
 	"boltrisk/model/units"
@@ -84,7 +83,7 @@ func Simulation(s *scenario.Scenario, r *montecarlo.Result, target float64, vers
 	for i := range r.Modes {
 		mr := &r.Modes[i]
 		pd := probDoc(mr.Mode.Title(), mr.Interval)
-		sf := mr.NominalSF
+		sf := FiniteSF(mr.NominalSF)
 		pd.NominalSF = &sf
 		pd.SFPercentiles = percentiles(&mr.SF)
 		if mr.BoltSamples > 0 {
@@ -112,11 +111,7 @@ func probDoc(title string, iv montecarlo.Interval) ProbDoc {
 func percentiles(h *montecarlo.Histogram) []float64 {
 	out := make([]float64, len(Levels))
 	for i, l := range Levels {
-		v := h.Quantile(l)
-		if math.IsNaN(v) || math.IsInf(v, 0) {
-			v = 0
-		}
-		out[i] = v
+		out[i] = FiniteSF(h.Quantile(l))
 	}
 	return out
 }

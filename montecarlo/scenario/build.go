@@ -95,6 +95,7 @@ func (p *parser) buildOne(r rawDoc) (*Scenario, error) {
 		return nil, err
 	}
 	stainless := false
+	enduranceNote := "" // a caveat on the tabulated endurance, reported if fatigue is checked
 	if hasClass {
 		c, err := model.LookupClass(cname, d)
 		if err != nil {
@@ -116,8 +117,8 @@ func (p *parser) buildOne(r rawDoc) (*Scenario, error) {
 		if !given["fatigue.endurance"] && c.Endurance > 0 {
 			in.Endurance = c.Endurance
 			s.EnduranceNote = "Shigley Table 8-17, class " + c.Name
-			if c.Note != "" && strings.Contains(c.Note, "Table 8-17") {
-				s.Warnings = append(s.Warnings, model.Warning{Field: "fatigue.endurance", Message: c.Note})
+			if c.Note != "" && strings.Contains(c.Note, "Table 8-17") && d < 16 {
+				enduranceNote = c.Note
 			}
 		}
 	} else {
@@ -266,6 +267,9 @@ func (p *parser) buildOne(r rawDoc) (*Scenario, error) {
 	}
 	if err := p.fatigue(r, s, given); err != nil {
 		return nil, err
+	}
+	if enduranceNote != "" && in.AxialMax > in.AxialMin && !given["fatigue.endurance"] && s.EnduranceNote != "" && strings.HasPrefix(s.EnduranceNote, "Shigley") {
+		s.Warnings = append(s.Warnings, model.Warning{Field: "fatigue.endurance", Message: enduranceNote})
 	}
 	if err := p.study(r, s); err != nil {
 		return nil, err
