@@ -47,6 +47,10 @@ type Settings struct {
 	// Modes, if set, restricts the tally to these modes (each must be active
 	// at nominal values); nil: every active mode.
 	Modes []model.Mode
+	// ProbabilitiesOnly skips the histograms (percentiles, pictures) and the
+	// pilot run that sizes them: studies that only need probabilities run
+	// faster. Result histograms are then empty.
+	ProbabilitiesOnly bool
 	// Ranges fixes the histogram ranges instead of a pilot run; studies use it
 	// so that every step bins alike. Nil: pilot run.
 	Ranges *Ranges
@@ -136,6 +140,7 @@ func (r *Result) Mode(m model.Mode) (*ModeResult, bool) {
 // summing tallies in any order gives identical results.
 type tally struct {
 	_                     [64]byte // keep other workers' data off these cache lines
+	hist                  bool     // fill the histograms
 	samples, invalid, any int64
 	fail                  [model.NumModes]int64
 	boltFail              [model.NumModes]int64
@@ -146,7 +151,10 @@ type tally struct {
 }
 
 func newTally(r *Ranges) *tally {
-	t := &tally{}
+	t := &tally{hist: r != nil}
+	if r == nil {
+		r = &Ranges{}
+	}
 	for m := range t.sf {
 		t.sf[m] = NewHistogram(r.SF[m][0], r.SF[m][1], histBins)
 	}
@@ -197,7 +205,9 @@ type worker struct {
 	t     *tally
 }
 
-func newWorker(p *Problem, pl *plan, modes []model.Mode, r *Ranges) (*worker, error) {
+// newWorker returns a worker; r nil means no histograms. A pilot worker
+// (pilot set) keeps no tally.
+func newWorker(p *Problem, pl *plan, modes []model.Mode, r *Ranges, pilot bool) (*worker, error) {
 	w := &worker{pl: pl, in: pl.base, modes: modes, set: model.SetOf(modes...)}
 	if modes == nil {
 		w.set = model.AllModes
@@ -216,7 +226,7 @@ func newWorker(p *Problem, pl *plan, modes []model.Mode, r *Ranges) (*worker, er
 		w.bolts = make([]model.BoltResult, pl.nBolts, pl.nBolts+2) // spare room: no shared line
 	}
 	w.rng = rand.New(&w.pcg)
-	if r != nil {
+	if !pilot {
 		w.t = newTally(r)
 	}
 	return w, nil
@@ -280,16 +290,20 @@ func (t *tally) add(modes []model.Mode, o *model.Outcome, bolts []model.BoltResu
 			t.fail[m]++
 			failed |= 1 << m
 		}
-		t.sf[m].Add(c / d)
+		if t.hist {
+			t.sf[m].Add(c / d)
+		}
 	}
 	if failed != 0 {
 		t.any++
 	}
 	for b := range bolts {
 		br := &bolts[b]
-		t.q[QPreload].Add(br.Preload)
-		t.q[QBoltForce].Add(br.BoltForce)
-		t.q[QClamp].Add(br.Clamp)
+		if t.hist {
+			t.q[QPreload].Add(br.Preload)
+			t.q[QBoltForce].Add(br.BoltForce)
+			t.q[QClamp].Add(br.Clamp)
+		}
 		mom.n++
 		mom.sum += br.Preload
 		mom.ssq += br.Preload * br.Preload
@@ -406,7 +420,7 @@ func Run(ctx context.Context, p *Problem, s Settings) (*Result, error) {
 		modes = slices.Compact(modes)
 	}
 	ranges := s.Ranges
-	if ranges == nil {
+	if ranges == nil && !s.ProbabilitiesOnly {
 		ranges, err = pilotRanges(p, pl, s.Seed)
 		if err != nil {
 			return nil, err
@@ -414,7 +428,7 @@ func Run(ctx context.Context, p *Problem, s Settings) (*Result, error) {
 	}
 	workers := make([]*worker, s.Workers)
 	for i := range workers {
-		if workers[i], err = newWorker(p, pl, modes, ranges); err != nil {
+		if workers[i], err = newWorker(p, pl, modes, ranges, false); err != nil {
 			return nil, err
 		}
 	}
@@ -441,6 +455,7 @@ func Run(ctx context.Context, p *Problem, s Settings) (*Result, error) {
 
 func sumTallies(ws []*worker) *tally {
 	t := newTally(&Ranges{})
+	t.hist = ws[0].t.hist
 	for m := range t.sf {
 		t.sf[m] = cloneEmpty(&ws[0].t.sf[m])
 	}
@@ -507,7 +522,7 @@ const pilotSamples = 4096
 // pilotRanges runs a small pilot on its own stream and sets each histogram
 // to the pilot's range widened by 10 % on each side.
 func pilotRanges(p *Problem, pl *plan, seed uint64) (*Ranges, error) {
-	w, err := newWorker(p, pl, nil, nil)
+	w, err := newWorker(p, pl, nil, nil, true)
 	if err != nil {
 		return nil, err
 	}

@@ -144,7 +144,8 @@ type Sweep struct {
 // RunSweep evaluates the problem at every step value with the same seed:
 // every step reuses the same random streams (common random numbers), so the
 // curves are smooth and differences between steps are not sampling noise.
-// s.Target must be 0 (each step runs s.Samples). An interrupted sweep
+// s.Target must be 0 (each step runs s.Samples); histograms are not kept
+// (Settings.ProbabilitiesOnly). An interrupted sweep
 // returns the steps done, marked Partial, with an error wrapping
 // ErrInterrupted.
 func RunSweep(ctx context.Context, p *Problem, v Vary, s Settings) (*Sweep, error) {
@@ -155,6 +156,7 @@ func RunSweep(ctx context.Context, p *Problem, v Vary, s Settings) (*Sweep, erro
 		return nil, errors.New("a sweep runs a fixed number of samples per step; the precision target does not apply")
 	}
 	sw := &Sweep{Vary: v}
+	s.ProbabilitiesOnly = true // curves need probabilities only
 	xs := v.Values()
 	progress := s.Progress
 	for i, x := range xs {
@@ -304,6 +306,7 @@ func FindSpreadLimit(ctx context.Context, p *Problem, path string, target float6
 	if err := v.Validate(p); err != nil {
 		return nil, err
 	}
+	s.ProbabilitiesOnly = true
 	eval := func(f float64) (float64, Dist, error) {
 		q, err := v.Apply(p, f)
 		if err != nil {
