@@ -72,7 +72,10 @@ func PreloadFigure(s *scenario.Scenario, r *montecarlo.Result, sys units.System)
 	w := model.PreloadWindow(s.Inputs())
 	unit, scale := forceUnit(sys)
 	h := &r.Q[montecarlo.QPreload]
-	markers := []plots.Marker{{X: w.ProofMax, Label: "greatest below proof load " + sys.Format(w.ProofMax, units.Force)}}
+	markers := []plots.Marker{
+		{X: w.ProofMax, Label: "greatest below proof load " + sys.Format(w.ProofMax, units.Force)},
+		{X: w.AssemblyMax, Label: "greatest before yield in assembly " + sys.Format(w.AssemblyMax, units.Force) + " (on assembly preload)"},
+	}
 	below := 0.0
 	if w.SeparationMin > 0 {
 		markers = append([]plots.Marker{{X: w.SeparationMin, Label: "least against separation " + sys.Format(w.SeparationMin, units.Force)}}, markers...)
@@ -91,14 +94,14 @@ func PreloadFigure(s *scenario.Scenario, r *montecarlo.Result, sys units.System)
 		Markers: markers,
 		Notes: []string{
 			fmt.Sprintf("below the window: %s of bolt samples", pct(below)),
-			fmt.Sprintf("above the window: %s of bolt samples", pct(above)),
+			fmt.Sprintf("above the proof limit: %s of bolt samples", pct(above)),
 		},
 	}
 	p, _, err := plots.HistogramPlot(spec)
 	if err != nil {
 		return Figure{}, spec, err
 	}
-	f, err := figure(p, "preload.png", "Residual preload of every bolt in every sample, with the preload window: the least preload that avoids separation (and slip) at the largest load, and the greatest that stays below the proof load.")
+	f, err := figure(p, "preload.png", "Residual preload of every bolt in every sample, with the preload window: the least preload that avoids separation (and slip) at the largest load, the greatest that stays below the proof load, and the greatest assembly preload before yield in tightening.")
 	return f, spec, err
 }
 
