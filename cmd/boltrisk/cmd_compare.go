@@ -139,16 +139,5 @@ func runCompare(ctx context.Context, opts *CompareOptions) error {
 			return err
 		}
 	}
-	if opts.JSON {
-		err = report.WriteJSON(opts.Out, doc)
-	} else {
-		report.WriteCompare(opts.Out, doc, sys)
-	}
-	if err != nil {
-		return err
-	}
-	if pr.Partial {
-		return errPartial
-	}
-	return nil
+	return opts.finish(doc, func(w io.Writer) { report.WriteCompare(w, doc, sys) }, pr.Partial)
 }

@@ -44,9 +44,5 @@ func runNominal(opts *NominalOptions) error {
 		return err
 	}
 	doc := report.Nominal(s, toolVersion())
-	if opts.JSON {
-		return report.WriteJSON(opts.Out, doc)
-	}
-	report.WriteNominal(opts.Out, s, doc, sys)
-	return nil
+	return opts.finish(doc, func(w io.Writer) { report.WriteNominal(w, s, doc, sys) }, false)
 }

@@ -87,18 +87,7 @@ func runSimulate(ctx context.Context, opts *SimulateOptions) error {
 			return err
 		}
 	}
-	if opts.JSON {
-		err = report.WriteJSON(opts.Out, doc)
-	} else {
-		report.WriteSimulation(opts.Out, s, doc, sys)
-	}
-	if err != nil {
-		return err
-	}
-	if res.Partial {
-		return errPartial
-	}
-	return nil
+	return opts.finish(doc, func(w io.Writer) { report.WriteSimulation(w, s, doc, sys) }, res.Partial)
 }
 
 func writeSimulationReview(ctx context.Context, opts *SimulateOptions, s *scenario.Scenario, res *montecarlo.Result, doc report.SimDoc, set montecarlo.Settings) error {

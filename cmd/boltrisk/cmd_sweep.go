@@ -177,11 +177,7 @@ func runSweep(ctx context.Context, opts *SweepOptions) error {
 				return err
 			}
 		}
-		if opts.JSON {
-			return report.WriteJSON(opts.Out, doc)
-		}
-		report.WriteSweep(opts.Out, s, doc, sys)
-		return nil
+		return opts.finish(doc, func(w io.Writer) { report.WriteSweep(w, s, doc, sys) }, false)
 	}
 	if opts.Vary == "" {
 		return usagef("--vary is required (e.g. --vary torque=40..70N*m), or use --max-scatter")
@@ -209,16 +205,5 @@ func runSweep(ctx context.Context, opts *SweepOptions) error {
 			return err
 		}
 	}
-	if opts.JSON {
-		err = report.WriteJSON(opts.Out, doc)
-	} else {
-		report.WriteSweep(opts.Out, s, doc, sys)
-	}
-	if err != nil {
-		return err
-	}
-	if sw.Partial {
-		return errPartial
-	}
-	return nil
+	return opts.finish(doc, func(w io.Writer) { report.WriteSweep(w, s, doc, sys) }, sw.Partial)
 }

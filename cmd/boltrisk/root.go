@@ -154,6 +154,22 @@ func (c *common) system(sc *scenario.Scenario) (units.System, error) {
 	return sys, nil
 }
 
+// finish writes the document as JSON (--json) or as text, then reports a
+// partial run so that the exit status says so.
+func (c *common) finish(doc any, text func(io.Writer), partial bool) error {
+	if c.JSON {
+		if err := report.WriteJSON(c.Out, doc); err != nil {
+			return err
+		}
+	} else {
+		text(c.Out)
+	}
+	if partial {
+		return errPartial
+	}
+	return nil
+}
+
 // scenario loads FILE or --example and resolves the display units.
 func (c *common) scenario() (*scenario.Scenario, units.System, error) {
 	s, err := loadScenario(c.File, c.Example)
