@@ -3,7 +3,6 @@ package report
 import (
 	"fmt"
 
-	"boltrisk/model"
 	"boltrisk/model/units"
 	"boltrisk/montecarlo/scenario"
 )
@@ -35,17 +34,7 @@ func nominalSections(doc NominalDoc, sys units.System) []Section {
 		{"greatest assembly preload before yield", F(w.AssemblyMax)},
 		{"preload still improves Goodman up to", F(w.BeneficialMax)},
 	}}
-	modes := &Table{Header: []string{"mode", "demand", "capacity", "safety factor", "result"}}
-	for _, k := range doc.ModeOrder {
-		m := doc.Modes[k]
-		mode, _ := model.ParseMode(k)
-		dim := ModeDim(mode)
-		res := "ok"
-		if m.Fails {
-			res = "FAILS"
-		}
-		modes.Rows = append(modes.Rows, []string{k, sys.Format(m.Demand, dim), sys.Format(m.Capacity, dim), fmtSF(m.SafetyFactor), res})
-	}
+	modes := &Table{Header: []string{"mode", "demand", "capacity", "safety factor", "result"}, Rows: modeRows(doc, sys)}
 	return []Section{
 		{Heading: "Joint at nominal values", Table: joint},
 		{Heading: "Failure modes at nominal values", Table: modes},

@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"io"
 	"math"
+	"strings"
 	"text/tabwriter"
 
 	"boltrisk/model"
@@ -167,6 +168,16 @@ func writeNominalBody(w io.Writer, doc NominalDoc, sys units.System) {
 	fmt.Fprintln(w, "\nFailure modes (nominal)")
 	tw = tabwriter.NewWriter(w, 0, 0, 2, ' ', tabwriter.AlignRight)
 	fmt.Fprintln(tw, "  mode\tdemand\tcapacity\tsafety factor\tresult\t")
+	for _, row := range modeRows(doc, sys) {
+		fmt.Fprintf(tw, "  %s\t\n", strings.Join(row, "\t"))
+	}
+	tw.Flush()
+}
+
+// modeRows returns, per mode at nominal values: key, demand, capacity,
+// safety factor and "ok" or "FAILS", formatted in the display units.
+func modeRows(doc NominalDoc, sys units.System) [][]string {
+	var rows [][]string
 	for _, k := range doc.ModeOrder {
 		md := doc.Modes[k]
 		m, _ := model.ParseMode(k)
@@ -175,9 +186,9 @@ func writeNominalBody(w io.Writer, doc NominalDoc, sys units.System) {
 		if md.Fails {
 			res = "FAILS"
 		}
-		fmt.Fprintf(tw, "  %s\t%s\t%s\t%s\t%s\t\n", k, sys.Format(md.Demand, dim), sys.Format(md.Capacity, dim), fmtSF(md.SafetyFactor), res)
+		rows = append(rows, []string{k, sys.Format(md.Demand, dim), sys.Format(md.Capacity, dim), fmtSF(md.SafetyFactor), res})
 	}
-	tw.Flush()
+	return rows
 }
 
 // SFCap stands for an infinite safety factor (a mode with no demand, such
