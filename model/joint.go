@@ -129,9 +129,13 @@ type BoltResult struct {
 	ThreadTorque    float64 // thread torque in tightening MG, N·mm
 	BoltForce       float64 // largest bolt force Fi + Φ·Pmax, N
 	Clamp           float64 // residual clamp force Fi − (1 − Φ)·Pmax, N (negative once separated)
-	Demand          [Fatigue + 1]float64
-	Capacity        [Fatigue + 1]float64
-	Invalid         bool // an input lies outside the model's domain (e.g. a negative nut factor)
+	// Demand, capacity and activity of the bolt modes (AssemblyYield …
+	// Fatigue); the shear-side entries stay zero. Laid out as in Outcome so
+	// that a one-bolt joint can be read from either.
+	Demand   [NumModes]float64
+	Capacity [NumModes]float64
+	Active   [NumModes]bool
+	Invalid  bool // an input lies outside the model's domain (e.g. a negative nut factor)
 }
 
 // Outcome is the state of the whole joint.
@@ -246,6 +250,11 @@ func EvaluateBolt(in *Inputs, s *Stiffness, set ModeSet, b *BoltResult) {
 	b.AssemblyPreload, b.Preload, b.ThreadTorque, b.BoltForce = fm, fi, mg, fb
 	b.Clamp = fi - (1-phi)*pmax
 	b.Invalid = invalid
+	b.Active[AssemblyYield] = in.Method != DirectPreload || in.Preload > 0
+	b.Active[Proof] = true
+	b.Active[ServiceYield] = true
+	b.Active[Separation] = pmax > 0
+	b.Active[Fatigue] = pmax > pmin
 
 	if torsion {
 		d0 := in.StressDiameter()
@@ -349,7 +358,9 @@ func quadRoot(a, b, c float64) float64 {
 //
 // A bolt mode fails for the joint when any bolt fails it; the joint's demand
 // and capacity are those of the bolt with the smallest safety factor. Slip
-// uses the summed residual clamp force of all bolts.
+// uses the summed residual clamp force of all bolts. With a single result
+// and no shear load the joint's modes are exactly the bolt's (Demand,
+// Capacity, Active, Invalid), so a caller may read the BoltResult instead.
 //
 // Outcome.Bolt and Outcome.Stiffness are left alone (Evaluate fills them);
 // the Monte Carlo driver reads the bolts directly.
@@ -366,29 +377,20 @@ func EvaluateJoint(in *Inputs, s *Stiffness, bolts []BoltResult, out *Outcome) {
 		clamp *= float64(in.Bolts) / float64(len(bolts))
 	}
 	out.ClampSum = clamp
-	if len(bolts) == 1 {
-		out.Demand[AssemblyYield], out.Capacity[AssemblyYield] = bolts[0].Demand[AssemblyYield], bolts[0].Capacity[AssemblyYield]
-		out.Demand[Proof], out.Capacity[Proof] = bolts[0].Demand[Proof], bolts[0].Capacity[Proof]
-		out.Demand[ServiceYield], out.Capacity[ServiceYield] = bolts[0].Demand[ServiceYield], bolts[0].Capacity[ServiceYield]
-		out.Demand[Separation], out.Capacity[Separation] = bolts[0].Demand[Separation], bolts[0].Capacity[Separation]
-		out.Demand[Fatigue], out.Capacity[Fatigue] = bolts[0].Demand[Fatigue], bolts[0].Capacity[Fatigue]
-	}
-	for m := AssemblyYield; len(bolts) > 1 && m <= Fatigue; m++ {
+	for m := AssemblyYield; m <= Fatigue; m++ {
 		w := 0
+		active := bolts[0].Active[m]
 		for i := 1; i < len(bolts); i++ {
 			// bolt i is worse when cap_i/dem_i < cap_w/dem_w (demands are positive).
 			if bolts[i].Capacity[m]*bolts[w].Demand[m] < bolts[w].Capacity[m]*bolts[i].Demand[m] {
 				w = i
 			}
+			active = active || bolts[i].Active[m]
 		}
 		out.Demand[m] = bolts[w].Demand[m]
 		out.Capacity[m] = bolts[w].Capacity[m]
+		out.Active[m] = active
 	}
-	out.Active[AssemblyYield] = in.Method != DirectPreload || in.Preload > 0
-	out.Active[Proof] = true
-	out.Active[ServiceYield] = true
-	out.Active[Separation] = in.AxialMax > 0
-	out.Active[Fatigue] = in.AxialMax > in.AxialMin
 	shearModes(in, clamp, out)
 }
 

@@ -174,3 +174,20 @@ func BenchmarkEvaluate(b *testing.B) {
 		Evaluate(&in, &o)
 	}
 }
+
+func TestOneBoltJointIsTheBolt(t *testing.T) {
+	t.Parallel()
+	// EvaluateJoint documents that with one result and no shear load the
+	// joint's modes are the bolt's; the Monte Carlo runner relies on it.
+	for _, in := range []Inputs{r1(), func() Inputs { x := r1(); x.AxialMax, x.AxialMin = 0, 0; return x }(),
+		func() Inputs { x := r1(); x.Method, x.Preload = DirectPreload, 40e3; return x }()} {
+		s := ComputeStiffness(&in)
+		var b [1]BoltResult
+		EvaluateBolt(&in, &s, AllModes, &b[0])
+		var o Outcome
+		EvaluateJoint(&in, &s, b[:], &o)
+		if o.Demand != b[0].Demand || o.Capacity != b[0].Capacity || o.Active != b[0].Active || o.Invalid != b[0].Invalid {
+			t.Errorf("joint of one bolt differs from the bolt:\n%+v\n%+v", o, b[0])
+		}
+	}
+}

@@ -308,7 +308,7 @@ func (w *pairedWorker) runChunk(seed uint64, c, n int64, mom []moments) {
 				model.EvaluateBolt(&st.in, &st.stiff, st.set, &st.bolts[b])
 			}
 			model.EvaluateJoint(&st.in, &st.stiff, st.bolts, &st.out)
-			fails[i] = st.t.add(w.modes, &st.out, st.bolts, &mom[i])
+			fails[i] = st.t.add(w.modes, modeView{&st.out.Active, &st.out.Demand, &st.out.Capacity, &st.out.Invalid}, st.bolts, &mom[i])
 			valid[i] = !st.out.Invalid
 		}
 		all := true

@@ -258,7 +258,28 @@ func (w *worker) sample() {
 		w.perBolt.draw(w.rng)
 		model.EvaluateBolt(&w.in, &w.stiff, w.set, &w.bolts[b])
 	}
-	model.EvaluateJoint(&w.in, &w.stiff, w.bolts, &w.out)
+	if w.pl.needJoint {
+		model.EvaluateJoint(&w.in, &w.stiff, w.bolts, &w.out)
+	}
+}
+
+// view returns where the joint's modes are read after sample: the joint
+// outcome, or the single bolt's result when the joint adds nothing to it.
+func (w *worker) view() modeView {
+	if w.pl.needJoint {
+		return modeView{&w.out.Active, &w.out.Demand, &w.out.Capacity, &w.out.Invalid}
+	}
+	b := &w.bolts[0]
+	return modeView{&b.Active, &b.Demand, &b.Capacity, &b.Invalid}
+}
+
+// modeView points at the activity, demand, capacity and validity of every
+// mode of one evaluated sample.
+type modeView struct {
+	active   *[model.NumModes]bool
+	demand   *[model.NumModes]float64
+	capacity *[model.NumModes]float64
+	invalid  *bool
 }
 
 // runChunk evaluates n samples of chunk c into the worker's tally and
@@ -266,26 +287,27 @@ func (w *worker) sample() {
 func (w *worker) runChunk(seed uint64, c int64, n int64) moments {
 	w.pcg.Seed(streamSeed(seed, uint64(c)))
 	var mom moments
+	v := w.view()
 	for range n {
 		w.sample()
-		w.t.add(w.modes, &w.out, w.bolts, &mom)
+		w.t.add(w.modes, v, w.bolts, &mom)
 	}
 	return mom
 }
 
 // add tallies one evaluated sample and returns the set of modes it failed.
-func (t *tally) add(modes []model.Mode, o *model.Outcome, bolts []model.BoltResult, mom *moments) model.ModeSet {
-	if o.Invalid {
+func (t *tally) add(modes []model.Mode, o modeView, bolts []model.BoltResult, mom *moments) model.ModeSet {
+	if *o.invalid {
 		t.invalid++
 		return 0
 	}
 	t.samples++
 	var failed model.ModeSet
 	for _, m := range modes {
-		if !o.Active[m] {
+		if !o.active[m] {
 			continue
 		}
-		c, d := o.Capacity[m], o.Demand[m]
+		c, d := o.capacity[m], o.demand[m]
 		if c <= d {
 			t.fail[m]++
 			failed |= 1 << m
@@ -311,7 +333,7 @@ func (t *tally) add(modes []model.Mode, o *model.Outcome, bolts []model.BoltResu
 	if len(bolts) > 1 {
 		t.boltSamples += int64(len(bolts))
 		for _, m := range modes {
-			if m > model.Fatigue || !o.Active[m] {
+			if m > model.Fatigue || !o.active[m] {
 				continue
 			}
 			for b := range bolts {
@@ -541,14 +563,15 @@ func pilotRanges(p *Problem, pl *plan, seed uint64) (*Ranges, error) {
 		r[0] = math.Min(r[0], v)
 		r[1] = math.Max(r[1], v)
 	}
+	v := w.view()
 	for range pilotSamples {
 		w.sample()
-		if w.out.Invalid {
+		if *v.invalid {
 			continue
 		}
 		for m := range model.NumModes {
-			if w.out.Active[m] {
-				upd(&lo.SF[m], w.out.SafetyFactor(m))
+			if v.active[m] {
+				upd(&lo.SF[m], v.capacity[m]/v.demand[m])
 			}
 		}
 		for b := range w.bolts {

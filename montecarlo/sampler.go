@@ -60,6 +60,10 @@ type plan struct {
 	perBoltCorr []Correlation
 	stiffVaries bool // an input of the stiffness calculation is uncertain
 	nBolts      int  // bolt evaluations per sample
+	// needJoint: the joint's modes differ from the one bolt's (several bolts
+	// evaluated, or a shear load); otherwise EvaluateJoint is skipped and the
+	// bolt result is read directly (model.EvaluateJoint documents that).
+	needJoint bool
 }
 
 // stiffnessInputs are the paths whose uncertainty forces the stiffness to be
@@ -105,6 +109,12 @@ func newPlan(p *Problem) (*plan, error) {
 	}
 	if len(pl.perBolt) > 0 {
 		pl.nBolts = p.Base.Bolts
+	}
+	pl.needJoint = pl.nBolts > 1 || p.Base.ShearLoad > 0
+	for _, v := range p.Vars {
+		if v.Name == "loads.shear" {
+			pl.needJoint = true
+		}
 	}
 	return pl, nil
 }
