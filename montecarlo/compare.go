@@ -7,6 +7,7 @@ import (
 	"math"
 	"math/rand/v2"
 	"runtime"
+	"slices"
 	"sort"
 	"time"
 
@@ -30,36 +31,19 @@ type Paired struct {
 	Elapsed               time.Duration
 }
 
-// variate is one named input drawn from the shared universe of variates.
-type slot struct {
-	u    int // index into the sample's variates
-	dist Dist
-	ptr  *float64
-}
-
-// vgroup maps universe variates to one variant's inputs of one kind
-// (shared or per bolt), with the variant's own copula.
+// vgroup is one variant's group of inputs (shared or per bolt) fed from the
+// sample's universe of variates: u[i] is the variate of item i.
 type vgroup struct {
-	slots  []slot
-	copula *Copula
-	eps    []float64
+	group
+	u []int
+	z []float64 // the item's variates gathered from the universe
 }
 
-func (g *vgroup) apply(z []float64) {
-	if g.copula == nil {
-		for i := range g.slots {
-			s := &g.slots[i]
-			*s.ptr = s.dist.FromNormal(z[s.u])
-		}
-		return
+func (g *vgroup) apply(universe []float64) {
+	for i, k := range g.u {
+		g.z[i] = universe[k]
 	}
-	for i := range g.slots {
-		g.eps[i] = z[g.slots[i].u]
-	}
-	g.copula.Mix(g.eps)
-	for i := range g.slots {
-		*g.slots[i].ptr = g.slots[i].dist.FromNormal(g.eps[i])
-	}
+	g.fromNormals(g.z)
 }
 
 // vstate is one variant's evaluation state inside a paired worker.
@@ -126,20 +110,12 @@ func indexOf(names []string, n string) int {
 func newVState(p *Problem, pl *plan, u universe, modes []model.Mode, r *Ranges) (*vstate, error) {
 	st := &vstate{pl: pl, in: pl.base, set: model.SetOf(modes...), t: newTally(r)}
 	build := func(idx []int, corr []Correlation, names []string) (vgroup, error) {
-		g := vgroup{}
+		g, err := pl.newGroup(p, idx, corr, &st.in)
+		vg := vgroup{group: g, z: make([]float64, len(idx), len(idx)+8)}
 		for _, i := range idx {
-			v := p.Vars[i]
-			g.slots = append(g.slots, slot{u: indexOf(names, v.Name), dist: v.Dist, ptr: v.Field(&st.in)})
+			vg.u = append(vg.u, indexOf(names, p.Vars[i].Name))
 		}
-		if len(corr) > 0 {
-			c, err := NewCopula(len(idx), corr)
-			if err != nil {
-				return g, err
-			}
-			g.copula = c
-			g.eps = make([]float64, len(idx), len(idx)+8)
-		}
-		return g, nil
+		return vg, err
 	}
 	var err error
 	if st.shared, err = build(pl.shared, pl.sharedCorr, u.shared); err != nil {
@@ -198,7 +174,7 @@ func RunPaired(ctx context.Context, ps []*Problem, s Settings) (*Paired, error) 
 	}
 	var modes []model.Mode
 	for m := model.Mode(0); m < model.NumModes; m++ {
-		if common.Has(m) && (s.Modes == nil || containsMode(s.Modes, m)) {
+		if common.Has(m) && (s.Modes == nil || slices.Contains(s.Modes, m)) {
 			modes = append(modes, m)
 		}
 	}
@@ -274,15 +250,6 @@ func RunPaired(ctx context.Context, ps []*Problem, s Settings) (*Paired, error) 
 		return out, fmt.Errorf("%w after %d samples: %v", ErrInterrupted, out.Samples, context.Cause(ctx))
 	}
 	return out, nil
-}
-
-func containsMode(ms []model.Mode, m model.Mode) bool {
-	for _, x := range ms {
-		if x == m {
-			return true
-		}
-	}
-	return false
 }
 
 func (w *pairedWorker) runChunk(seed uint64, c, n int64, mom []moments) {

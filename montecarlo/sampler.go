@@ -45,9 +45,20 @@ func (g *group) draw(r *rand.Rand) {
 	for i := range g.eps {
 		g.eps[i] = r.NormFloat64()
 	}
-	g.copula.Mix(g.eps)
+	g.fromNormals(g.eps)
+}
+
+// fromNormals writes the values given by independent standard normal
+// variates z, one per item (mixed through the group's copula, if any),
+// through the group's pointers.
+func (g *group) fromNormals(z []float64) {
+	if g.copula != nil {
+		copy(g.eps, z)
+		g.copula.Mix(g.eps)
+		z = g.eps
+	}
 	for i := range g.items {
-		*g.items[i].ptr = g.items[i].dist.FromNormal(g.eps[i])
+		*g.items[i].ptr = g.items[i].dist.FromNormal(z[i])
 	}
 }
 
