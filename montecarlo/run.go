@@ -38,7 +38,7 @@ type Settings struct {
 	Confidence float64 // two-sided confidence of the intervals; 0: 0.95
 	// Target, if > 0, stops the run once every mode that has failed (and the
 	// any-mode probability) has a relative interval half-width ≤ Target; the
-	// check runs every 16 chunks. Samples stays the cap.
+	// check runs every 64 chunks (about 10⁶ samples). Samples stays the cap.
 	Target float64
 	// Progress, if set, is called after each chunk with the samples done and
 	// the budget. It runs on a worker goroutine and must be quick and safe
@@ -51,9 +51,6 @@ type Settings struct {
 	// pilot run that sizes them: studies that only need probabilities run
 	// faster. Result histograms are then empty.
 	ProbabilitiesOnly bool
-	// Ranges fixes the histogram ranges instead of a pilot run; studies use it
-	// so that every step bins alike. Nil: pilot run.
-	Ranges *Ranges
 }
 
 // Validate checks the settings.
@@ -118,7 +115,7 @@ type Result struct {
 	Elapsed    time.Duration
 
 	Nominal model.Outcome
-	Modes   []ModeResult // modes active at nominal values or that failed, report order
+	Modes   []ModeResult // modes active at nominal values (or those asked for), report order
 	Any     Interval     // any reported mode
 	Q       [numQuantities]Histogram
 	// Mean and standard deviation of the residual preload over all bolts, N.
@@ -441,8 +438,8 @@ func Run(ctx context.Context, p *Problem, s Settings) (*Result, error) {
 		slices.Sort(modes)
 		modes = slices.Compact(modes)
 	}
-	ranges := s.Ranges
-	if ranges == nil && !s.ProbabilitiesOnly {
+	var ranges *Ranges
+	if !s.ProbabilitiesOnly {
 		ranges, err = pilotRanges(p, pl, s.Seed)
 		if err != nil {
 			return nil, err
