@@ -36,8 +36,8 @@ type Vary struct {
 	Steps int                          // number of values, ≥ 2
 }
 
-// LoadFields lists the service-load inputs scaled by VaryLoad.
-var LoadFields = map[string]func(*model.Inputs) *float64{
+// loadFields lists the service-load inputs scaled by VaryLoad.
+var loadFields = map[string]func(*model.Inputs) *float64{
 	"loads.axial_max": func(in *model.Inputs) *float64 { return &in.AxialMax },
 	"loads.axial_min": func(in *model.Inputs) *float64 { return &in.AxialMin },
 	"loads.shear":     func(in *model.Inputs) *float64 { return &in.ShearLoad },
@@ -107,7 +107,7 @@ func (v *Vary) Apply(p *Problem, x float64) (*Problem, error) {
 		}
 		*v.Field(&q.Base) = x
 	case VaryLoad:
-		for path, f := range LoadFields {
+		for path, f := range loadFields {
 			*f(&q.Base) *= x
 			if i, ok := findVar(q, path); ok {
 				d, err := q.Vars[i].Dist.Multiplied(x)

@@ -64,8 +64,7 @@ func Inputs(s *scenario.Scenario, sys units.System) []InputRow {
 		if v, ok := s.Uncertain(path); ok {
 			return v.Dist.Describe(f)
 		}
-		ptr := fieldValue(in, path)
-		return f(ptr)
+		return f(*scenario.FieldPtr(in, path))
 	}
 	th := in.Thread
 	bolt := fmt.Sprintf("%s (%s), %d bolt", th.Name, th.Series, in.Bolts)
@@ -137,11 +136,6 @@ func Inputs(s *scenario.Scenario, sys units.System) []InputRow {
 		add("correlation", fmt.Sprintf("%s ~ %s: ρ = %g", s.Problem.Vars[c.I].Name, s.Problem.Vars[c.J].Name, c.Rho), "Gaussian copula")
 	}
 	return rows
-}
-
-func fieldValue(in *model.Inputs, path string) float64 {
-	v := *scenario.FieldPtr(in, path)
-	return v
 }
 
 // writeRows writes label/value/source rows aligned.

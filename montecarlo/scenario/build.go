@@ -27,7 +27,7 @@ func (p *parser) build(r rawDoc) (*Scenario, error) {
 }
 
 func (p *parser) buildOne(r rawDoc) (*Scenario, error) {
-	s := &Scenario{File: p.file, raw: r}
+	s := &Scenario{File: p.file}
 	in := &s.Problem.Base
 	given := map[string]bool{}
 	lineOf := func(path string) int { return r.keyAt[path] }
@@ -86,7 +86,7 @@ func (p *parser) buildOne(r rawDoc) (*Scenario, error) {
 	}
 	th, err := model.LookupThread(tname)
 	if err != nil {
-		return nil, p.errf(line, "bolt.thread", tname, "%v", trimName(err))
+		return nil, p.errf(line, "bolt.thread", tname, "%v", err)
 	}
 	in.Thread = th
 	d := th.D
@@ -99,7 +99,7 @@ func (p *parser) buildOne(r rawDoc) (*Scenario, error) {
 	if hasClass {
 		c, err := model.LookupClass(cname, d)
 		if err != nil {
-			return nil, p.errf(cline, "bolt.class", cname, "%v", trimName(err))
+			return nil, p.errf(cline, "bolt.class", cname, "%v", err)
 		}
 		s.ClassName = c.Name
 		stainless = c.Standard == "ISO 3506-1"
@@ -173,7 +173,7 @@ func (p *parser) buildOne(r rawDoc) (*Scenario, error) {
 		if hasMat {
 			m, err := model.LookupMaterial(mname)
 			if err != nil {
-				return nil, p.errf(mline, pre+"material", mname, "%v", trimName(err))
+				return nil, p.errf(mline, pre+"material", mname, "%v", err)
 			}
 			if !given[pre+"modulus"] {
 				l.Modulus = m.Modulus
@@ -300,8 +300,6 @@ func mustField(path string) field {
 	return f
 }
 
-// trimName drops the package prefix that model errors do not carry anyway.
-func trimName(err error) string { return err.Error() }
 
 func (p *parser) optQuantity(r rawDoc, path string, dim units.Dim) (float64, bool, error) {
 	s, line, ok, err := p.scalar(r, path)

@@ -51,8 +51,6 @@ type Scenario struct {
 
 	Variants []*Scenario // named variants (compare); each is a complete scenario
 	Variant  string      // this scenario's variant name, "" for the base
-
-	raw rawDoc
 }
 
 // Inputs returns the nominal model inputs.
