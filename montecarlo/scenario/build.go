@@ -300,7 +300,6 @@ func mustField(path string) field {
 	return f
 }
 
-
 func (p *parser) optQuantity(r rawDoc, path string, dim units.Dim) (float64, bool, error) {
 	s, line, ok, err := p.scalar(r, path)
 	if err != nil || !ok {
