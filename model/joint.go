@@ -186,6 +186,27 @@ func (in *Inputs) EquivalentFriction(k float64) float64 {
 	return (k*in.Thread.D - lead) / (thread + head)
 }
 
+// threadTorqueRatio returns MG/FM, the thread torque per unit assembly
+// preload: P/(2π) + 0.577·d2·μG, with μG the thread friction, or for the
+// nut-factor method the ISO 16047 total friction the nut factor implies
+// (taken as 0 when negative); 0 for direct preload (no torsion).
+func (in *Inputs) threadTorqueRatio() float64 {
+	lead, thread, _ := in.torqueTerms()
+	mu := 0.0
+	switch in.Method {
+	case NutFactorMethod:
+		mu = in.EquivalentFriction(in.NutFactor)
+	case FrictionMethod:
+		mu = in.ThreadFriction
+	default:
+		return 0
+	}
+	if mu < 0 {
+		mu = 0
+	}
+	return lead + thread*mu
+}
+
 // NutFactorOf returns the nut factor implied by thread and head friction:
 // K = (P/(2π) + 0.577·d2·μG + (DKm/2)·μK)/d.
 func (in *Inputs) NutFactorOf(muG, muK float64) float64 {
@@ -216,15 +237,9 @@ func EvaluateBolt(in *Inputs, s *Stiffness, set ModeSet, b *BoltResult) {
 	invalid := false
 	switch in.Method {
 	case NutFactorMethod:
-		kd := in.NutFactor * th.D
-		fm = in.Torque / kd
+		fm = in.Torque / (in.NutFactor * th.D)
 		if torsion {
-			lead, thread, head := in.torqueTerms()
-			mu := (kd - lead) / (thread + head)
-			if mu < 0 {
-				mu = 0
-			}
-			mg = fm * (lead + thread*mu)
+			mg = fm * in.threadTorqueRatio()
 		}
 		invalid = !(in.NutFactor > 0)
 	case FrictionMethod:

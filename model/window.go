@@ -38,18 +38,9 @@ func PreloadWindow(in *Inputs) Window {
 		w.SlipMin = in.ShearLoad/(in.SlipFactor*in.ShearPlanes*float64(in.Bolts)) + w.SeparationMin
 	}
 	w.ProofMax = in.Proof*as - s.Phi*pmax
-	// Torsion ratio from the nominal tightening: MG/FM does not depend on FM.
-	lead, thread, head := in.torqueTerms()
-	ratio := 0.0
-	switch in.Method {
-	case NutFactorMethod:
-		mu := math.Max((in.NutFactor*in.Thread.D-lead)/(thread+head), 0)
-		ratio = lead + thread*mu
-	case FrictionMethod:
-		ratio = lead + thread*in.ThreadFriction
-	}
+	// Torsion from the nominal tightening: MG/FM does not depend on FM.
 	d0 := in.StressDiameter()
-	k := ratio * as / (math.Pi / 12 * d0 * d0 * d0)
+	k := in.threadTorqueRatio() * as / (math.Pi / 12 * d0 * d0 * d0)
 	w.AssemblyMax = as * in.Yield / math.Sqrt(1+3*k*k)
 	w.BeneficialMax = (1 - s.C) * in.Tensile * as
 	w.Lower = math.Max(w.SeparationMin, w.SlipMin)
