@@ -64,7 +64,6 @@ type pairedWorker struct {
 	zShared     []float64
 	zBolt       [][]float64
 	pcg         rand.PCG
-	rng         *rand.Rand
 	onlyBase    [][model.NumModes + 1]int64
 	onlyVariant [][model.NumModes + 1]int64
 	pairs       int64
@@ -206,7 +205,6 @@ func RunPaired(ctx context.Context, ps []*Problem, s Settings) (*Paired, error) 
 		for b := range pw.zBolt {
 			pw.zBolt[b] = make([]float64, len(u.perBolt), len(u.perBolt)+8)
 		}
-		pw.rng = rand.New(&pw.pcg)
 		for i, p := range ps {
 			st, err := newVState(p, plans[i], u, modes, &ranges)
 			if err != nil {
@@ -258,11 +256,11 @@ func (w *pairedWorker) runChunk(seed uint64, c, n int64, mom []moments) {
 	valid := make([]bool, len(w.vs))
 	for range n {
 		for i := range w.zShared {
-			w.zShared[i] = w.rng.NormFloat64()
+			w.zShared[i] = normal(&w.pcg)
 		}
 		for _, zb := range w.zBolt {
 			for i := range zb {
-				zb[i] = w.rng.NormFloat64()
+				zb[i] = normal(&w.pcg)
 			}
 		}
 		for i, st := range w.vs {

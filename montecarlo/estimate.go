@@ -63,7 +63,8 @@ type Histogram struct {
 	Counts []int64
 	Under  int64
 	Over   int64
-	inv    float64
+	inv    float64 // bins per unit of x
+	nf     float64 // number of bins
 }
 
 // NewHistogram returns an empty histogram of n bins over [lo, hi).
@@ -71,7 +72,7 @@ func NewHistogram(lo, hi float64, n int) Histogram {
 	if !(hi > lo) {
 		hi = lo + 1
 	}
-	return Histogram{Lo: lo, Hi: hi, Counts: make([]int64, n), inv: float64(n) / (hi - lo)}
+	return Histogram{Lo: lo, Hi: hi, Counts: make([]int64, n), inv: float64(n) / (hi - lo), nf: float64(n)}
 }
 
 // Add counts one value. NaN counts as overflow.
@@ -81,7 +82,7 @@ func (h *Histogram) Add(x float64) {
 		h.Under++
 		return
 	}
-	if !(f < float64(len(h.Counts))) {
+	if !(f < h.nf) {
 		h.Over++
 		return
 	}

@@ -188,14 +188,19 @@ type worker struct {
 	in      model.Inputs
 	shared  group
 	perBolt group
-	stiff   model.Stiffness
-	bolts   []model.BoltResult
-	boltBuf [4]model.BoltResult // backing store for small joints, inside the worker
-	out     model.Outcome
+	// Values drawn ahead for one block of samples, row by row: sharedRows
+	// [j·len(shared)+i] and boltRows[bolt][j·len(perBolt)+i] is input i of
+	// sample j; all in one allocation.
+	sharedRows []float64
+	boltRows   [][]float64
+	block      int // samples per block
+	stiff      model.Stiffness
+	bolts      []model.BoltResult
+	boltBuf    [4]model.BoltResult // backing store for small joints, inside the worker
+	out        model.Outcome
 	// The stream state lives inside the worker: a separately allocated 16-byte
 	// PCG shares a cache line with another worker's and halves the speed.
 	pcg   rand.PCG
-	rng   *rand.Rand
 	_     [64]byte
 	modes []model.Mode // reported modes
 	set   model.ModeSet
@@ -222,7 +227,16 @@ func newWorker(p *Problem, pl *plan, modes []model.Mode, r *Ranges, pilot bool) 
 	} else {
 		w.bolts = make([]model.BoltResult, pl.nBolts, pl.nBolts+2) // spare room: no shared line
 	}
-	w.rng = rand.New(&w.pcg)
+	ns, nb := len(pl.shared), len(pl.perBolt)
+	w.block = blockLen(ns + pl.nBolts*nb)
+	slab := make([]float64, (ns+pl.nBolts*nb)*w.block+8) // spare room: no shared line
+	w.sharedRows, slab = slab[:ns*w.block], slab[ns*w.block:]
+	if nb > 0 {
+		w.boltRows = make([][]float64, pl.nBolts)
+		for b := range w.boltRows {
+			w.boltRows[b], slab = slab[:nb*w.block], slab[nb*w.block:]
+		}
+	}
 	if !pilot {
 		w.t = newTally(r)
 	}
@@ -244,15 +258,28 @@ func splitmix(x uint64) uint64 {
 	return x ^ (x >> 31)
 }
 
-// sample draws and evaluates one sample into w.out. The loop allocates nothing
-// and calls no interface other than the random source.
-func (w *worker) sample() {
-	w.shared.draw(w.rng)
+// drawBlock draws the inputs of the next n ≤ w.block samples: the shared
+// inputs, then each bolt's; within a group input by input, each input's n
+// values in sample order. This order is part of the reproducibility contract.
+func (w *worker) drawBlock(n int) {
+	w.shared.fill(&w.pcg, w.sharedRows[:n*len(w.shared.items)])
+	for _, rows := range w.boltRows {
+		w.perBolt.fill(&w.pcg, rows[:n*len(w.perBolt.items)])
+	}
+}
+
+// sample evaluates sample j of the drawn block into the bolt results (and
+// w.out). It allocates nothing and calls no interface.
+func (w *worker) sample(j int) {
+	ns, nb := len(w.shared.items), len(w.perBolt.items)
+	w.shared.set(w.sharedRows[j*ns : j*ns+ns])
 	if w.pl.stiffVaries {
 		w.stiff = model.ComputeStiffness(&w.in)
 	}
 	for b := range w.bolts {
-		w.perBolt.draw(w.rng)
+		if w.boltRows != nil {
+			w.perBolt.set(w.boltRows[b][j*nb : j*nb+nb])
+		}
 		model.EvaluateBolt(&w.in, &w.stiff, w.set, &w.bolts[b])
 	}
 	if w.pl.needJoint {
@@ -285,9 +312,13 @@ func (w *worker) runChunk(seed uint64, c int64, n int64) moments {
 	w.pcg.Seed(streamSeed(seed, uint64(c)))
 	var mom moments
 	v := w.view()
-	for range n {
-		w.sample()
-		w.t.add(w.modes, v, w.bolts, &mom)
+	for j0 := int64(0); j0 < n; j0 += int64(w.block) {
+		m := int(min(int64(w.block), n-j0))
+		w.drawBlock(m)
+		for j := range m {
+			w.sample(j)
+			w.t.add(w.modes, v, w.bolts, &mom)
+		}
 	}
 	return mom
 }
@@ -300,11 +331,12 @@ func (t *tally) add(modes []model.Mode, o modeView, bolts []model.BoltResult, mo
 	}
 	t.samples++
 	var failed model.ModeSet
+	active, capacity, demand := o.active, o.capacity, o.demand
 	for _, m := range modes {
-		if !o.active[m] {
+		if !active[m] {
 			continue
 		}
-		c, d := o.capacity[m], o.demand[m]
+		c, d := capacity[m], demand[m]
 		if c <= d {
 			t.fail[m]++
 			failed |= 1 << m
@@ -328,19 +360,24 @@ func (t *tally) add(modes []model.Mode, o modeView, bolts []model.BoltResult, mo
 		mom.ssq += br.Preload * br.Preload
 	}
 	if len(bolts) > 1 {
-		t.boltSamples += int64(len(bolts))
-		for _, m := range modes {
-			if m > model.Fatigue || !o.active[m] {
-				continue
-			}
-			for b := range bolts {
-				if bolts[b].Capacity[m] <= bolts[b].Demand[m] {
-					t.boltFail[m]++
-				}
+		t.boltFailures(modes, active, bolts)
+	}
+	return failed
+}
+
+// boltFailures counts the bolt evaluations failing each bolt mode.
+func (t *tally) boltFailures(modes []model.Mode, active *[model.NumModes]bool, bolts []model.BoltResult) {
+	t.boltSamples += int64(len(bolts))
+	for _, m := range modes {
+		if m > model.Fatigue || !active[m] {
+			continue
+		}
+		for b := range bolts {
+			if bolts[b].Capacity[m] <= bolts[b].Demand[m] {
+				t.boltFail[m]++
 			}
 		}
 	}
-	return failed
 }
 
 // schedule runs the chunks of a run on nw workers in rounds of roundChunks.
@@ -561,8 +598,11 @@ func pilotRanges(p *Problem, pl *plan, seed uint64) (*Ranges, error) {
 		r[1] = math.Max(r[1], v)
 	}
 	v := w.view()
-	for range pilotSamples {
-		w.sample()
+	for j := range pilotSamples {
+		if j%w.block == 0 {
+			w.drawBlock(w.block)
+		}
+		w.sample(j % w.block)
 		if *v.invalid {
 			continue
 		}

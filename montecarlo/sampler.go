@@ -12,40 +12,91 @@ import (
 // sample or the per-bolt inputs of one bolt.
 type group struct {
 	items  []drawItem
-	copula *Copula // nil when the group is uncorrelated
+	ptrs   []*float64 // the items' fields, in item order
+	copula *Copula    // nil when the group is uncorrelated
 	eps    []float64
 }
 
 // drawItem is one input of a group, laid out for the sampling loop: the
 // normal and lognormal parameters inline, the full distribution behind a
-// pointer for the other families.
+// pointer for the other families. Its field is in group.ptrs.
 type drawItem struct {
 	kind Kind
 	a, b float64
-	ptr  *float64
 	dist *Dist
 }
 
-// draw writes one set of values through the group's pointers.
-func (g *group) draw(r *rand.Rand) {
+// blockValues bounds the values drawn ahead per worker (all inputs of one
+// block): 8192 float64, 64 KiB, stays in the core's cache.
+const blockValues = 8192
+
+// blockLen returns the number of samples drawn per block for a problem
+// with cols drawn values per sample: 256 (a divisor of ChunkSize), fewer for
+// joints with many bolts. It is part of the reproducibility contract.
+func blockLen(cols int) int {
+	n := 256
+	for n > 1 && n*cols > blockValues {
+		n /= 2
+	}
+	return n
+}
+
+// fill draws the group's values for the next samples of a block into dst,
+// row by row: dst[j·n + i] is item i of sample j (n items). Each item's
+// values are drawn in one loop (item by item, sample order within), so
+// nothing is dispatched per value; a correlated group is then mixed row by
+// row through its copula.
+func (g *group) fill(p *rand.PCG, dst []float64) {
+	n := len(g.items)
+	if n == 0 {
+		return
+	}
 	if g.copula == nil {
 		for i := range g.items {
-			it := &g.items[i]
-			switch it.kind {
-			case Normal:
-				*it.ptr = it.a + it.b*r.NormFloat64()
-			case LogNormal:
-				*it.ptr = math.Exp(it.a + it.b*r.NormFloat64())
-			default:
-				*it.ptr = it.dist.FromUniform(r.Float64())
-			}
+			g.items[i].fill(p, dst[i:], n)
 		}
 		return
 	}
-	for i := range g.eps {
-		g.eps[i] = r.NormFloat64()
+	for i := range n {
+		normals(p, dst[i:], n)
 	}
-	g.fromNormals(g.eps)
+	for j := 0; j < len(dst); j += n {
+		row := dst[j : j+n]
+		g.copula.Mix(row)
+		for i := range row {
+			row[i] = g.items[i].dist.FromNormal(row[i])
+		}
+	}
+}
+
+// fill draws the item's values into dst[0], dst[stride], dst[2·stride], …
+func (it *drawItem) fill(p *rand.PCG, dst []float64, stride int) {
+	a, b := it.a, it.b
+	switch it.kind {
+	case Normal:
+		normals(p, dst, stride)
+		for j := 0; j < len(dst); j += stride {
+			dst[j] = a + b*dst[j]
+		}
+	case LogNormal:
+		normals(p, dst, stride)
+		for j := 0; j < len(dst); j += stride {
+			dst[j] = math.Exp(a + b*dst[j])
+		}
+	default:
+		for j := 0; j < len(dst); j += stride {
+			dst[j] = it.dist.FromUniform(unit(p))
+		}
+	}
+}
+
+// set writes one drawn row (one value per item) through the group's
+// pointers.
+func (g *group) set(row []float64) {
+	ptrs := g.ptrs[:len(row)]
+	for i, v := range row {
+		*ptrs[i] = v
+	}
 }
 
 // fromNormals writes the values given by independent standard normal
@@ -58,7 +109,7 @@ func (g *group) fromNormals(z []float64) {
 		z = g.eps
 	}
 	for i := range g.items {
-		*g.items[i].ptr = g.items[i].dist.FromNormal(z[i])
+		*g.ptrs[i] = g.items[i].dist.FromNormal(z[i])
 	}
 }
 
@@ -134,7 +185,8 @@ func (pl *plan) newGroup(p *Problem, idx []int, corr []Correlation, in *model.In
 	g := group{}
 	for _, i := range idx {
 		d := p.Vars[i].Dist
-		g.items = append(g.items, drawItem{kind: d.Kind, a: d.A, b: d.B, ptr: p.Vars[i].Field(in), dist: &d})
+		g.items = append(g.items, drawItem{kind: d.Kind, a: d.A, b: d.B, dist: &d})
+		g.ptrs = append(g.ptrs, p.Vars[i].Field(in))
 	}
 	if len(corr) > 0 {
 		c, err := NewCopula(len(idx), corr)
@@ -142,7 +194,7 @@ func (pl *plan) newGroup(p *Problem, idx []int, corr []Correlation, in *model.In
 			return g, err
 		}
 		g.copula = c
-		g.eps = make([]float64, len(idx), len(idx)+8) // spare room: no shared cache line
 	}
+	g.eps = make([]float64, len(idx), len(idx)+8) // spare room: no shared cache line
 	return g, nil
 }
