@@ -302,7 +302,10 @@ func EvaluateBolt(in *Inputs, s *Stiffness, set ModeSet, b *BoltResult) {
 	}
 	if pmax > pmin {
 		b.Demand[Fatigue] = phi * (pmax - pmin) * 0.5 * s.invAs
-		si, q := fi*s.invAs, (pmax+pmin)/(pmax-pmin)
+		si, q := fi*s.invAs, 1.0 // q = 1: repeated loading 0…Pmax, the common case
+		if pmin != 0 {
+			q = (pmax + pmin) / (pmax - pmin)
+		}
 		if in.Criterion == Goodman {
 			// Inline form of StrengthAmplitude's Goodman case (Shigley Eq. 8-38).
 			sa := in.Endurance * (in.Tensile - si) / (in.Tensile + q*in.Endurance)

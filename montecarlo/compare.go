@@ -60,15 +60,35 @@ type vstate struct {
 }
 
 type pairedWorker struct {
-	vs          []*vstate
+	vs []*vstate
+	// The universe's variates for one block, row by row as in worker:
+	// zShared[j·ns+i] and zBolt[bolt][j·nb+i] is variate i of sample j.
 	zShared     []float64
 	zBolt       [][]float64
+	ns, nb      int // universe sizes
+	block       int
 	pcg         rand.PCG
 	onlyBase    [][model.NumModes + 1]int64
 	onlyVariant [][model.NumModes + 1]int64
 	pairs       int64
 	modes       []model.Mode
 	_           [64]byte
+}
+
+// drawBlock draws the variates of the next n samples in the order of
+// worker.drawBlock, so that a variant whose inputs are the whole universe
+// (normal or lognormal) sees the draws of a separate run with the same seed.
+func (w *pairedWorker) drawBlock(n int) {
+	rows := w.zShared[:n*w.ns]
+	for i := range w.ns {
+		normals(&w.pcg, rows[i:], w.ns)
+	}
+	for _, zb := range w.zBolt {
+		rows := zb[:n*w.nb]
+		for i := range w.nb {
+			normals(&w.pcg, rows[i:], w.nb)
+		}
+	}
 }
 
 // universe is the sorted union of the variants' uncertain input names.
@@ -199,11 +219,17 @@ func RunPaired(ctx context.Context, ps []*Problem, s Settings) (*Paired, error) 
 	u := newUniverse(ps)
 	workers := make([]*pairedWorker, s.Workers)
 	for w := range workers {
-		pw := &pairedWorker{modes: modes, zShared: make([]float64, len(u.shared)),
+		pw := &pairedWorker{modes: modes, ns: len(u.shared), nb: len(u.perBolt),
 			onlyBase: make([][model.NumModes + 1]int64, len(ps)), onlyVariant: make([][model.NumModes + 1]int64, len(ps))}
-		pw.zBolt = make([][]float64, nb)
+		boltRows := 0
+		if pw.nb > 0 {
+			boltRows = nb
+		}
+		pw.block = blockLen(pw.ns + boltRows*pw.nb)
+		pw.zShared = make([]float64, pw.ns*pw.block, pw.ns*pw.block+8) // spare room: no shared line
+		pw.zBolt = make([][]float64, boltRows)
 		for b := range pw.zBolt {
-			pw.zBolt[b] = make([]float64, len(u.perBolt), len(u.perBolt)+8)
+			pw.zBolt[b] = make([]float64, pw.nb*pw.block, pw.nb*pw.block+8)
 		}
 		for i, p := range ps {
 			st, err := newVState(p, plans[i], u, modes, &ranges)
@@ -254,54 +280,57 @@ func (w *pairedWorker) runChunk(seed uint64, c, n int64, mom []moments) {
 	w.pcg.Seed(streamSeed(seed, uint64(c)))
 	fails := make([]model.ModeSet, len(w.vs))
 	valid := make([]bool, len(w.vs))
-	for range n {
-		for i := range w.zShared {
-			w.zShared[i] = normal(&w.pcg)
+	for j0 := int64(0); j0 < n; j0 += int64(w.block) {
+		m := int(min(int64(w.block), n-j0))
+		w.drawBlock(m)
+		for j := range m {
+			w.sample(j, fails, valid, mom)
 		}
-		for _, zb := range w.zBolt {
-			for i := range zb {
-				zb[i] = normal(&w.pcg)
+	}
+}
+
+// sample evaluates sample j of the drawn block in every variant and counts
+// the discordant pairs.
+func (w *pairedWorker) sample(j int, fails []model.ModeSet, valid []bool, mom []moments) {
+	zs := w.zShared[j*w.ns : j*w.ns+w.ns]
+	for i, st := range w.vs {
+		st.shared.apply(zs)
+		if st.pl.stiffVaries {
+			st.stiff = model.ComputeStiffness(&st.in)
+		}
+		for b := range st.bolts {
+			if w.zBolt != nil {
+				st.perBolt.apply(w.zBolt[b][j*w.nb : j*w.nb+w.nb])
+			}
+			model.EvaluateBolt(&st.in, &st.stiff, st.set, &st.bolts[b])
+		}
+		model.EvaluateJoint(&st.in, &st.stiff, st.bolts, &st.out)
+		fails[i] = st.t.add(w.modes, modeView{&st.out.Active, &st.out.Demand, &st.out.Capacity, &st.out.Invalid}, st.bolts, &mom[i])
+		valid[i] = !st.out.Invalid
+	}
+	for _, v := range valid {
+		if !v {
+			return
+		}
+	}
+	w.pairs++
+	f0 := fails[0]
+	for i := 1; i < len(w.vs); i++ {
+		fi := fails[i]
+		b, v := f0&^fi, fi&^f0
+		for _, m := range w.modes {
+			if b.Has(m) {
+				w.onlyBase[i][m]++
+			}
+			if v.Has(m) {
+				w.onlyVariant[i][m]++
 			}
 		}
-		for i, st := range w.vs {
-			st.shared.apply(w.zShared)
-			if st.pl.stiffVaries {
-				st.stiff = model.ComputeStiffness(&st.in)
-			}
-			for b := range st.bolts {
-				st.perBolt.apply(w.zBolt[b])
-				model.EvaluateBolt(&st.in, &st.stiff, st.set, &st.bolts[b])
-			}
-			model.EvaluateJoint(&st.in, &st.stiff, st.bolts, &st.out)
-			fails[i] = st.t.add(w.modes, modeView{&st.out.Active, &st.out.Demand, &st.out.Capacity, &st.out.Invalid}, st.bolts, &mom[i])
-			valid[i] = !st.out.Invalid
+		if f0 != 0 && fi == 0 {
+			w.onlyBase[i][model.NumModes]++
 		}
-		all := true
-		for _, v := range valid {
-			all = all && v
-		}
-		if !all {
-			continue
-		}
-		w.pairs++
-		f0 := fails[0]
-		for i := 1; i < len(w.vs); i++ {
-			fi := fails[i]
-			b, v := f0&^fi, fi&^f0
-			for _, m := range w.modes {
-				if b.Has(m) {
-					w.onlyBase[i][m]++
-				}
-				if v.Has(m) {
-					w.onlyVariant[i][m]++
-				}
-			}
-			if f0 != 0 && fi == 0 {
-				w.onlyBase[i][model.NumModes]++
-			}
-			if fi != 0 && f0 == 0 {
-				w.onlyVariant[i][model.NumModes]++
-			}
+		if fi != 0 && f0 == 0 {
+			w.onlyVariant[i][model.NumModes]++
 		}
 	}
 }

@@ -2,7 +2,6 @@ package montecarlo
 
 import (
 	"fmt"
-	"math"
 	"math/rand/v2"
 
 	"boltrisk/model"
@@ -81,7 +80,7 @@ func (it *drawItem) fill(p *rand.PCG, dst []float64, stride int) {
 	case LogNormal:
 		normals(p, dst, stride)
 		for j := 0; j < len(dst); j += stride {
-			dst[j] = math.Exp(a + b*dst[j])
+			dst[j] = exp(a + b*dst[j])
 		}
 	default:
 		for j := 0; j < len(dst); j += stride {
