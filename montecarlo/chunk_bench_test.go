@@ -31,8 +31,8 @@ func r1Problem(tb testing.TB) *Problem {
 }
 
 // BenchmarkChunkR1 times one worker on one chunk of R1 with the three R1
-// modes and histograms: the per-sample cost of the runner without
-// scheduling. Compare variants with -count 10 and benchstat.
+// modes, binning one chunk in four as a 10⁷-sample run does: the per-sample
+// cost of the runner without scheduling. Compare variants with -count 10 and benchstat.
 func BenchmarkChunkR1(b *testing.B) {
 	p := r1Problem(b)
 	pl, err := newPlan(p)
@@ -43,7 +43,7 @@ func BenchmarkChunkR1(b *testing.B) {
 	if err != nil {
 		b.Fatal(err)
 	}
-	w, err := newWorker(p, pl, []model.Mode{model.Proof, model.Separation, model.Fatigue}, r, false)
+	w, err := newWorker(p, pl, []model.Mode{model.Proof, model.Separation, model.Fatigue}, r, binStride(1e7), false)
 	if err != nil {
 		b.Fatal(err)
 	}

@@ -72,6 +72,7 @@ type pairedWorker struct {
 	onlyVariant [][model.NumModes + 1]int64
 	pairs       int64
 	modes       []model.Mode
+	binStride   int64 // as in worker
 	_           [64]byte
 }
 
@@ -219,7 +220,7 @@ func RunPaired(ctx context.Context, ps []*Problem, s Settings) (*Paired, error) 
 	u := newUniverse(ps)
 	workers := make([]*pairedWorker, s.Workers)
 	for w := range workers {
-		pw := &pairedWorker{modes: modes, ns: len(u.shared), nb: len(u.perBolt),
+		pw := &pairedWorker{modes: modes, ns: len(u.shared), nb: len(u.perBolt), binStride: binStride(s.Samples),
 			onlyBase: make([][model.NumModes + 1]int64, len(ps)), onlyVariant: make([][model.NumModes + 1]int64, len(ps))}
 		boltRows := 0
 		if pw.nb > 0 {
@@ -249,7 +250,7 @@ func RunPaired(ctx context.Context, ps []*Problem, s Settings) (*Paired, error) 
 		for _, w := range workers {
 			t.merge(w.vs[i].t)
 		}
-		r := &Result{Seed: s.Seed, Workers: s.Workers, Confidence: s.Confidence, NBolts: nb, Nominal: noms[i]}
+		r := &Result{Seed: s.Seed, Workers: s.Workers, Confidence: s.Confidence, NBolts: nb, Nominal: noms[i], BinStride: workers[0].binStride}
 		r.fill(t, modes, &totals[i])
 		out.Variants = append(out.Variants, r)
 		for _, w := range workers {
@@ -278,6 +279,9 @@ func RunPaired(ctx context.Context, ps []*Problem, s Settings) (*Paired, error) 
 
 func (w *pairedWorker) runChunk(seed uint64, c, n int64, mom []moments) {
 	w.pcg.Seed(streamSeed(seed, uint64(c)))
+	for _, st := range w.vs {
+		st.t.hist = c%w.binStride == 0
+	}
 	fails := make([]model.ModeSet, len(w.vs))
 	valid := make([]bool, len(w.vs))
 	for j0 := int64(0); j0 < n; j0 += int64(w.block) {

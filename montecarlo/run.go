@@ -27,6 +27,20 @@ const roundChunks = 64
 // histBins is the resolution of the histograms behind the percentiles.
 const histBins = 400
 
+// The histograms (percentiles, pictures) take every sample of runs up to
+// 2·binTarget samples. Larger runs bin every k-th chunk, k = budget/binTarget
+// up to maxBinStride: at least 2²¹ samples (or one in eight) are binned, far
+// more than the 400-bin resolution needs, and the run is about a fifth
+// faster. Failure counts always use every sample. Which chunks are binned
+// depends only on the budget, so results stay independent of the workers.
+const (
+	binTarget    = 1 << 21
+	maxBinStride = 8
+)
+
+// binStride returns the k above for a sample budget.
+func binStride(samples int64) int64 { return min(max(samples/binTarget, 1), maxBinStride) }
+
 // MaxSamples is the largest sample budget accepted.
 const MaxSamples = 1e11
 
@@ -107,6 +121,10 @@ type ModeResult struct {
 type Result struct {
 	Samples    int64 // valid samples evaluated
 	Invalid    int64 // samples outside the model's domain (counted, not used)
+	// Binned is the number of valid samples in the histograms: Samples, or
+	// those of every BinStride-th chunk in a large run (see binTarget).
+	Binned    int64
+	BinStride int64
 	Seed       uint64
 	Workers    int
 	Confidence float64
@@ -137,8 +155,9 @@ func (r *Result) Mode(m model.Mode) (*ModeResult, bool) {
 // summing tallies in any order gives identical results.
 type tally struct {
 	_                     [64]byte // keep other workers' data off these cache lines
-	hist                  bool     // fill the histograms
+	hist                  bool     // bin the current chunk into the histograms
 	samples, invalid, any int64
+	binned                int64 // valid samples binned
 	fail                  [model.NumModes]int64
 	boltFail              [model.NumModes]int64
 	boltSamples           int64
@@ -148,7 +167,7 @@ type tally struct {
 }
 
 func newTally(r *Ranges) *tally {
-	t := &tally{hist: r != nil}
+	t := &tally{}
 	if r == nil {
 		r = &Ranges{}
 	}
@@ -164,6 +183,7 @@ func newTally(r *Ranges) *tally {
 func (t *tally) merge(o *tally) {
 	t.samples += o.samples
 	t.invalid += o.invalid
+	t.binned += o.binned
 	t.any += o.any
 	t.boltSamples += o.boltSamples
 	for m := range t.fail {
@@ -205,12 +225,19 @@ type worker struct {
 	modes []model.Mode // reported modes
 	set   model.ModeSet
 	t     *tally
+	// binStride: the chunks binned into the histograms are those with
+	// c % binStride == 0; 0 means no histograms.
+	binStride int64
 }
 
-// newWorker returns a worker; r nil means no histograms. A pilot worker
-// (pilot set) keeps no tally.
-func newWorker(p *Problem, pl *plan, modes []model.Mode, r *Ranges, pilot bool) (*worker, error) {
+// newWorker returns a worker binning every binStride-th chunk into
+// histograms over r; r nil means no histograms. A pilot worker (pilot set)
+// keeps no tally.
+func newWorker(p *Problem, pl *plan, modes []model.Mode, r *Ranges, binStride int64, pilot bool) (*worker, error) {
 	w := &worker{pl: pl, in: pl.base, modes: modes, set: model.SetOf(modes...)}
+	if r != nil {
+		w.binStride = binStride
+	}
 	if modes == nil {
 		w.set = model.AllModes
 	}
@@ -310,6 +337,7 @@ type modeView struct {
 // returns the chunk's floating sums.
 func (w *worker) runChunk(seed uint64, c int64, n int64) moments {
 	w.pcg.Seed(streamSeed(seed, uint64(c)))
+	w.t.hist = w.binStride > 0 && c%w.binStride == 0
 	var mom moments
 	v := w.view()
 	for j0 := int64(0); j0 < n; j0 += int64(w.block) {
@@ -330,6 +358,9 @@ func (t *tally) add(modes []model.Mode, o modeView, bolts []model.BoltResult, mo
 		return 0
 	}
 	t.samples++
+	if t.hist {
+		t.binned++
+	}
 	var failed model.ModeSet
 	active, capacity, demand := o.active, o.capacity, o.demand
 	for _, m := range modes {
@@ -482,9 +513,10 @@ func Run(ctx context.Context, p *Problem, s Settings) (*Result, error) {
 			return nil, err
 		}
 	}
+	res.BinStride = binStride(s.Samples)
 	workers := make([]*worker, s.Workers)
 	for i := range workers {
-		if workers[i], err = newWorker(p, pl, modes, ranges, false); err != nil {
+		if workers[i], err = newWorker(p, pl, modes, ranges, res.BinStride, false); err != nil {
 			return nil, err
 		}
 	}
@@ -511,7 +543,6 @@ func Run(ctx context.Context, p *Problem, s Settings) (*Result, error) {
 
 func sumTallies(ws []*worker) *tally {
 	t := newTally(&Ranges{})
-	t.hist = ws[0].t.hist
 	for m := range t.sf {
 		t.sf[m] = cloneEmpty(&ws[0].t.sf[m])
 	}
@@ -542,7 +573,7 @@ func targetMet(t *tally, modes []model.Mode, conf, target float64) bool {
 }
 
 func (res *Result) fill(t *tally, modes []model.Mode, mom *moments) {
-	res.Samples, res.Invalid = t.samples, t.invalid
+	res.Samples, res.Invalid, res.Binned = t.samples, t.invalid, t.binned
 	res.Any = Wilson(t.any, t.samples, res.Confidence)
 	for _, m := range modes {
 		mr := ModeResult{Mode: m, Interval: Wilson(t.fail[m], t.samples, res.Confidence), SF: t.sf[m]}
@@ -578,7 +609,7 @@ const pilotSamples = 4096
 // pilotRanges runs a small pilot on its own stream and sets each histogram
 // to the pilot's range widened by 10 % on each side.
 func pilotRanges(p *Problem, pl *plan, seed uint64) (*Ranges, error) {
-	w, err := newWorker(p, pl, nil, nil, true)
+	w, err := newWorker(p, pl, nil, nil, 0, true)
 	if err != nil {
 		return nil, err
 	}

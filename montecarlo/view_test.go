@@ -35,7 +35,7 @@ func TestBoltViewMatchesJoint(t *testing.T) {
 		var nom model.Outcome
 		model.Evaluate(&in, &nom)
 		r, _ := pilotRanges(prob, pl, 1)
-		w, err := newWorker(prob, pl, reportedModes(&nom), r, false)
+		w, err := newWorker(prob, pl, reportedModes(&nom), r, 1, false)
 		if err != nil {
 			t.Fatal(err)
 		}

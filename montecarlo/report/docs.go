@@ -93,8 +93,11 @@ func SimulationReview(s *scenario.Scenario, doc SimDoc, figs []Figure, prov Prov
 			pt.Rows = append(pt.Rows, row)
 		}
 	}
-	r.Sections = append(r.Sections, Section{Heading: "Percentiles", Table: pt,
-		Paragraphs: []string{"Forces over every bolt of every sample; safety factors of the joint, that is of its worst bolt in each sample."}})
+	para := []string{"Forces over every bolt of every sample; safety factors of the joint, that is of its worst bolt in each sample."}
+	if note := BinnedNote(doc.BinnedSamples, doc.Samples, doc.BinStride); note != "" {
+		para = append(para, "P"+note[1:]+".")
+	}
+	r.Sections = append(r.Sections, Section{Heading: "Percentiles", Table: pt, Paragraphs: para})
 	r.Sections = append(r.Sections, warningsSection(doc.Warnings)...)
 	return r
 }

@@ -97,12 +97,20 @@ func PreloadFigure(s *scenario.Scenario, r *montecarlo.Result, sys units.System)
 			fmt.Sprintf("above the proof limit: %s of bolt samples", pct(above)),
 		},
 	}
+	if r.Binned < r.Samples {
+		spec.Notes = append(spec.Notes, binnedBars(r))
+	}
 	p, _, err := plots.HistogramPlot(spec)
 	if err != nil {
 		return Figure{}, spec, err
 	}
 	f, err := figure(p, "preload.png", "Residual preload of every bolt in every sample, with the preload window: the least preload that avoids separation (and slip) at the largest load, the greatest that stays below the proof load, and the greatest assembly preload before yield in tightening.")
 	return f, spec, err
+}
+
+// binnedBars notes that a large run's bars rest on one chunk in k.
+func binnedBars(r *montecarlo.Result) string {
+	return fmt.Sprintf("bars: %d samples, one chunk in %d", r.Binned, r.BinStride)
 }
 
 func pct(f float64) string {
@@ -142,6 +150,9 @@ func SafetyFactorFigures(s *scenario.Scenario, r *montecarlo.Result) ([]Figure, 
 			Hist:    Hist(&m.SF),
 			Markers: []plots.Marker{{X: 1, Label: "failure at 1"}},
 			Notes:   []string{fmt.Sprintf("failures: %d of %d samples", m.Interval.Failures, m.Interval.Samples)},
+		}
+		if r.Binned < r.Samples {
+			spec.Notes = append(spec.Notes, binnedBars(r))
 		}
 		if m.Mode == model.Fatigue {
 			spec.Title = fmt.Sprintf("Fatigue safety factor, %s criterion (%s)", s.Inputs().Criterion, titleOf(s))

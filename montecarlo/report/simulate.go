@@ -42,20 +42,24 @@ type BoltProb struct {
 
 // SimDoc is the result of `boltrisk simulate --json`.
 type SimDoc struct {
-	SchemaVersion    int                  `json:"schema_version"`
-	Kind             string               `json:"kind"`
-	ToolVersion      string               `json:"tool_version"`
-	Scenario         ScenarioInfo         `json:"scenario"`
-	Inputs           []InputRow           `json:"inputs"`
-	Samples          int64                `json:"samples"`
-	InvalidSamples   int64                `json:"invalid_samples"`
-	Seed             uint64               `json:"seed"`
-	Confidence       float64              `json:"confidence"`
-	Interval         string               `json:"interval_method"`
-	Target           float64              `json:"target_rel_half_width,omitempty"`
-	Converged        bool                 `json:"target_met"`
-	Partial          bool                 `json:"partial"`
-	BoltsPerSample   int                  `json:"bolt_evaluations_per_sample"`
+	SchemaVersion  int          `json:"schema_version"`
+	Kind           string       `json:"kind"`
+	ToolVersion    string       `json:"tool_version"`
+	Scenario       ScenarioInfo `json:"scenario"`
+	Inputs         []InputRow   `json:"inputs"`
+	Samples        int64        `json:"samples"`
+	InvalidSamples int64        `json:"invalid_samples"`
+	Seed           uint64       `json:"seed"`
+	Confidence     float64      `json:"confidence"`
+	Interval       string       `json:"interval_method"`
+	Target         float64      `json:"target_rel_half_width,omitempty"`
+	Converged      bool         `json:"target_met"`
+	Partial        bool         `json:"partial"`
+	BoltsPerSample int          `json:"bolt_evaluations_per_sample"`
+	// BinnedSamples is the number of samples behind the percentiles: every
+	// sample, or those of one chunk in BinStride in a large run.
+	BinnedSamples    int64                `json:"binned_samples"`
+	BinStride        int64                `json:"bin_stride"`
 	Modes            map[string]ProbDoc   `json:"modes"`
 	ModeOrder        []string             `json:"mode_order"`
 	PercentileLevels []float64            `json:"percentile_levels"`
@@ -76,6 +80,7 @@ func Simulation(s *scenario.Scenario, r *montecarlo.Result, target float64, vers
 		Samples: r.Samples, InvalidSamples: r.Invalid, Seed: r.Seed, Confidence: r.Confidence,
 		Interval: "wilson; one-sided clopper-pearson upper bound when no sample failed",
 		Target:   target, Converged: r.Converged, Partial: r.Partial, BoltsPerSample: r.NBolts,
+		BinnedSamples: r.Binned, BinStride: r.BinStride,
 		Modes: map[string]ProbDoc{}, PercentileLevels: Levels, Percentiles: map[string][]float64{},
 		PreloadMean: r.PreloadMean, PreloadSD: r.PreloadSD,
 		Nominal: nom, Warnings: append([]string{}, nom.Warnings...), Caution: Caution,
@@ -174,6 +179,9 @@ func WriteSimulation(w io.Writer, s *scenario.Scenario, doc SimDoc, sys units.Sy
 		tw.Flush()
 	}
 	fmt.Fprintln(w, "\nPercentiles")
+	if note := BinnedNote(doc.BinnedSamples, doc.Samples, doc.BinStride); note != "" {
+		fmt.Fprintf(w, "  (%s)\n", note)
+	}
 	if doc.BoltsPerSample > 1 {
 		fmt.Fprintln(w, "  (forces: every bolt of every sample; safety factors: the joint, i.e. its worst bolt)")
 	}
@@ -207,4 +215,13 @@ func WriteSimulation(w io.Writer, s *scenario.Scenario, doc SimDoc, sys units.Sy
 	fmt.Fprintf(w, "  preload mean %s, standard deviation %s (c.o.v. %.3g)\n", F(doc.PreloadMean), F(doc.PreloadSD), doc.PreloadSD/doc.PreloadMean)
 	writeWarnings(w, doc.Warnings)
 	WriteCaution(w)
+}
+
+// BinnedNote says how many samples the percentiles and histograms rest on
+// when a large run binned only some of its chunks; "" when it binned all.
+func BinnedNote(binned, samples, stride int64) string {
+	if binned >= samples || stride <= 1 {
+		return ""
+	}
+	return fmt.Sprintf("percentiles and histograms from %d of the %d samples (one chunk in %d); the probabilities count every sample", binned, samples, stride)
 }
