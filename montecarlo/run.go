@@ -119,12 +119,12 @@ type ModeResult struct {
 
 // Result is the outcome of a run.
 type Result struct {
-	Samples    int64 // valid samples evaluated
-	Invalid    int64 // samples outside the model's domain (counted, not used)
+	Samples int64 // valid samples evaluated
+	Invalid int64 // samples outside the model's domain (counted, not used)
 	// Binned is the number of valid samples in the histograms: Samples, or
 	// those of every BinStride-th chunk in a large run (see binTarget).
-	Binned    int64
-	BinStride int64
+	Binned     int64
+	BinStride  int64
 	Seed       uint64
 	Workers    int
 	Confidence float64
