@@ -40,27 +40,28 @@ func blockLen(cols int) int {
 	return n
 }
 
-// fill draws the group's values for the next samples of a block into dst,
-// row by row: dst[j·n + i] is item i of sample j (n items). Each item's
-// values are drawn in one loop (item by item, sample order within), so
-// nothing is dispatched per value; a correlated group is then mixed row by
-// row through its copula.
-func (g *group) fill(p *rand.PCG, dst []float64) {
+// fill draws the group's values for the next m samples of a block into
+// rows: item i of sample j goes to rows[j·stride + i]. Each item's values are
+// drawn in one loop (item by item, sample order within), so nothing is
+// dispatched per value; a correlated group is then mixed sample by sample
+// through its copula.
+func (g *group) fill(p *rand.PCG, rows []float64, stride, m int) {
 	n := len(g.items)
-	if n == 0 {
+	if n == 0 || m == 0 {
 		return
 	}
+	rows = rows[:(m-1)*stride+n]
 	if g.copula == nil {
 		for i := range g.items {
-			g.items[i].fill(p, dst[i:], n)
+			g.items[i].fill(p, rows[i:], stride)
 		}
 		return
 	}
 	for i := range n {
-		normals(p, dst[i:], n)
+		normals(p, rows[i:], stride)
 	}
-	for j := 0; j < len(dst); j += n {
-		row := dst[j : j+n]
+	for j := 0; j < len(rows); j += stride {
+		row := rows[j : j+n]
 		g.copula.Mix(row)
 		for i := range row {
 			row[i] = g.items[i].dist.FromNormal(row[i])
@@ -91,8 +92,11 @@ func (it *drawItem) fill(p *rand.PCG, dst []float64, stride int) {
 
 // set writes one drawn row (one value per item) through the group's
 // pointers.
-func (g *group) set(row []float64) {
-	ptrs := g.ptrs[:len(row)]
+func (g *group) set(row []float64) { setRow(g.ptrs, row) }
+
+// setRow writes row[i] through ptrs[i].
+func setRow(ptrs []*float64, row []float64) {
+	ptrs = ptrs[:len(row)]
 	for i, v := range row {
 		*ptrs[i] = v
 	}
