@@ -21,8 +21,13 @@ const ChunkSize = 16384
 
 // roundChunks is the number of chunks between two checks of the stopping
 // rule (about 1 M samples); fixed so that where a run stops does not depend
-// on the worker count.
-const roundChunks = 64
+// on the worker count. Runs without a stopping rule use rounds of
+// freeRoundChunks, so that workers seldom wait for each other at the end
+// of a round.
+const (
+	roundChunks     = 64
+	freeRoundChunks = 1024
+)
 
 // histBins is the resolution of the histograms behind the percentiles.
 const histBins = 400
@@ -434,21 +439,27 @@ func (t *tally) boltFailures(modes []model.Mode, active *[model.NumModes]bool, b
 	}
 }
 
-// schedule runs the chunks of a run on nw workers in rounds of roundChunks.
+// schedule runs the chunks of a run on nw workers in rounds of roundChunks
+// (freeRoundChunks without a stopping rule).
 // job evaluates chunk c (n samples) on worker wi and writes k floating sums;
 // sums are merged in chunk order, so they do not depend on the worker count.
 // After each complete round, stop (if set) may end the run. It reports
 // whether the context ended the run early.
 func schedule(ctx context.Context, s Settings, nw, k int, stop func() bool, job func(wi int, c, n int64, mom []moments)) ([]moments, bool) {
 	nChunks := (s.Samples + ChunkSize - 1) / ChunkSize
+	round := int64(roundChunks)
+	if stop == nil {
+		round = freeRoundChunks
+	}
 	var done atomic.Int64
-	slots := make([]moments, roundChunks*k)
+	slots := make([]moments, round*int64(k))
+	finished := make([]bool, round)
 	total := make([]moments, k)
-	for r0 := int64(0); r0 < nChunks; r0 += roundChunks {
-		r1 := min(r0+roundChunks, nChunks)
+	for r0 := int64(0); r0 < nChunks; r0 += round {
+		r1 := min(r0+round, nChunks)
 		var next atomic.Int64
 		next.Store(r0)
-		var finished [roundChunks]bool
+		clear(finished)
 		var wg sync.WaitGroup
 		for wi := range nw {
 			wg.Add(1)
