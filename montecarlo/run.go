@@ -386,42 +386,46 @@ func (t *tally) add(modes []model.Mode, o modeView, bolts []model.BoltResult, mo
 		return 0
 	}
 	t.samples++
-	if t.hist {
-		t.binned++
-	}
 	var failed model.ModeSet
 	active, capacity, demand := o.active, o.capacity, o.demand
 	for _, m := range modes {
-		if !active[m] {
-			continue
-		}
-		c, d := capacity[m], demand[m]
-		if c <= d {
+		if active[m] && capacity[m] <= demand[m] {
 			t.fail[m]++
 			failed |= 1 << m
-		}
-		if t.hist {
-			t.sf[m].Add(c / d)
 		}
 	}
 	if failed != 0 {
 		t.any++
 	}
+	if t.hist {
+		t.bin(modes, o, bolts)
+	}
 	for b := range bolts {
-		br := &bolts[b]
-		if t.hist {
-			t.q[QPreload].Add(br.Preload)
-			t.q[QBoltForce].Add(br.BoltForce)
-			t.q[QClamp].Add(br.Clamp)
-		}
+		f := bolts[b].Preload
 		mom.n++
-		mom.sum += br.Preload
-		mom.ssq += br.Preload * br.Preload
+		mom.sum += f
+		mom.ssq += f * f
 	}
 	if len(bolts) > 1 {
 		t.boltFailures(modes, active, bolts)
 	}
 	return failed
+}
+
+// bin adds one valid sample to the histograms.
+func (t *tally) bin(modes []model.Mode, o modeView, bolts []model.BoltResult) {
+	t.binned++
+	for _, m := range modes {
+		if o.active[m] {
+			t.sf[m].Add(o.capacity[m] / o.demand[m])
+		}
+	}
+	for b := range bolts {
+		br := &bolts[b]
+		t.q[QPreload].Add(br.Preload)
+		t.q[QBoltForce].Add(br.BoltForce)
+		t.q[QClamp].Add(br.Clamp)
+	}
 }
 
 // boltFailures counts the bolt evaluations failing each bolt mode.
