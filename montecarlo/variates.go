@@ -103,7 +103,7 @@ func normalEdge(p *rand.PCG, u uint64) float64 {
 			}
 			return -zigR - x
 		}
-		if zigF[i]+unit(p)*(zigF[i-1]-zigF[i]) < math.Exp(-0.5*x*x) {
+		if zigF[i]+unit(p)*(zigF[i-1]-zigF[i]) < exp(-0.5*x*x) {
 			return x
 		}
 		u = p.Uint64()
