@@ -258,6 +258,65 @@ func TestSameSeedAnyWorkers(t *testing.T) {
 	}
 }
 
+func TestLargeRunBinsSomeChunks(t *testing.T) {
+	if testing.Short() {
+		t.Skip("4·10⁶ samples")
+	}
+	t.Parallel()
+	// Above 2·2²¹ samples the histograms take one chunk in k (here k = 2):
+	// the failure counts still use every sample, the histograms hold exactly
+	// the samples of the even chunks, the result is the same for any worker
+	// count, and the percentiles agree with the exact normal quantiles to
+	// within a bin.
+	in := joint()
+	sd := 3e3
+	p := &montecarlo.Problem{Base: in, Vars: []montecarlo.Var{
+		{Name: "tightening.preload", Dist: mustDist(montecarlo.NewNormal(40e3, sd)), PerBolt: true, Field: fPreload},
+	}}
+	const n = 2*(1<<21) + 12345 // k = 2; a partial last chunk
+	var first *montecarlo.Result
+	for _, w := range []int{1, 3} {
+		r, err := montecarlo.Run(context.Background(), p, montecarlo.Settings{Samples: n, Seed: 4, Workers: w})
+		if err != nil {
+			t.Fatal(err)
+		}
+		r.Elapsed, r.Workers = 0, 0
+		if first == nil {
+			first = r
+			continue
+		}
+		if !reflect.DeepEqual(first, r) {
+			t.Errorf("workers %d: result differs from workers 1", w)
+		}
+	}
+	r := first
+	var binned int64 // the samples of chunks 0, 2, 4, …
+	for c := int64(0); c*montecarlo.ChunkSize < n; c += 2 {
+		binned += min(montecarlo.ChunkSize, n-c*montecarlo.ChunkSize)
+	}
+	if r.BinStride != 2 || r.Samples != n || r.Binned != binned {
+		t.Fatalf("stride %d, samples %d, binned %d; want 2, %d, %d", r.BinStride, r.Samples, r.Binned, n, binned)
+	}
+	h := &r.Q[montecarlo.QPreload]
+	if h.Total() != r.Binned {
+		t.Errorf("preload histogram holds %d values, binned %d", h.Total(), r.Binned)
+	}
+	m, _ := r.Mode(model.Proof)
+	if m.SF.Total() != r.Binned || m.Interval.Samples != n {
+		t.Errorf("proof: histogram %d values, interval %d samples", m.SF.Total(), m.Interval.Samples)
+	}
+	// Quantiles of N(40 kN, 3 kN) (closed form), within a bin width plus
+	// five standard errors of a sample quantile, √(q(1−q)/n)/φ(z)·σ.
+	for _, q := range []float64{0.01, 0.5, 0.99} {
+		z := distuv.UnitNormal.Quantile(q)
+		want := 40e3 + sd*z
+		tol := h.Width() + 5*math.Sqrt(q*(1-q)/float64(r.Binned))/distuv.UnitNormal.Prob(z)*sd
+		if got := h.Quantile(q); math.Abs(got-want) > tol {
+			t.Errorf("preload %g-quantile %.1f N, want %.1f ± %.1f", q, got, want, tol)
+		}
+	}
+}
+
 func TestTargetStops(t *testing.T) {
 	t.Parallel()
 	in := joint()
