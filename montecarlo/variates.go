@@ -74,13 +74,6 @@ func normals(p *rand.PCG, dst []float64, stride int) {
 	}
 }
 
-// normal returns one standard normal variate from p.
-func normal(p *rand.PCG) float64 {
-	var z [1]float64
-	normals(p, z[:], 1)
-	return z[0]
-}
-
 // normalEdge finishes a draw u that fell outside its layer's rectangle: the
 // wedge test, or the tail beyond zigR by Marsaglia's method (1964).
 func normalEdge(p *rand.PCG, u uint64) float64 {
