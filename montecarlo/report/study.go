@@ -283,19 +283,23 @@ type VariantDoc struct {
 
 // CompareDoc is the result of `boltrisk compare --json`.
 type CompareDoc struct {
-	SchemaVersion    int          `json:"schema_version"`
-	Kind             string       `json:"kind"`
-	ToolVersion      string       `json:"tool_version"`
-	Samples          int64        `json:"samples"`
-	Seed             uint64       `json:"seed"`
-	Confidence       float64      `json:"confidence"`
-	Partial          bool         `json:"partial"`
-	ModeOrder        []string     `json:"mode_order"`
-	PercentileLevels []float64    `json:"percentile_levels"`
-	Variants         []VariantDoc `json:"variants"`
-	Differences      []DiffDoc    `json:"differences"`
-	Warnings         []string     `json:"warnings"`
-	Caution          string       `json:"caution"`
+	SchemaVersion    int       `json:"schema_version"`
+	Kind             string    `json:"kind"`
+	ToolVersion      string    `json:"tool_version"`
+	Samples          int64     `json:"samples"`
+	Seed             uint64    `json:"seed"`
+	Confidence       float64   `json:"confidence"`
+	Partial          bool      `json:"partial"`
+	ModeOrder        []string  `json:"mode_order"`
+	PercentileLevels []float64 `json:"percentile_levels"`
+	// BinnedSamples and BinStride: the samples behind the percentiles, as
+	// in SimDoc (the base variant's count).
+	BinnedSamples int64        `json:"binned_samples"`
+	BinStride     int64        `json:"bin_stride"`
+	Variants      []VariantDoc `json:"variants"`
+	Differences   []DiffDoc    `json:"differences"`
+	Warnings      []string     `json:"warnings"`
+	Caution       string       `json:"caution"`
 }
 
 // Verdicts of a comparison.
@@ -310,6 +314,7 @@ const (
 func Compare(ss []*scenario.Scenario, names []string, pr *montecarlo.Paired, set montecarlo.Settings, version string) CompareDoc {
 	doc := CompareDoc{SchemaVersion: SchemaVersion, Kind: "compare", ToolVersion: version, Samples: pr.Samples,
 		Seed: set.Seed, Confidence: pr.Variants[0].Confidence, Partial: pr.Partial, PercentileLevels: Levels,
+		BinnedSamples: pr.Variants[0].Binned, BinStride: pr.Variants[0].BinStride,
 		Warnings: []string{}, Caution: Caution}
 	for i, r := range pr.Variants {
 		modes, order := resultModes(r)
@@ -376,6 +381,9 @@ func WriteCompare(w io.Writer, doc CompareDoc, sys units.System) {
 		fmt.Fprintf(tw, "  %s\t%s\t%s\t%.3g\t%s\t%s\t\n", v.Name, F(v.PreloadMean), F(v.PreloadSD), v.PreloadSD/v.PreloadMean, F(p[0]), F(p[4]))
 	}
 	tw.Flush()
+	if note := BinnedNote(doc.BinnedSamples, doc.Samples, doc.BinStride); note != "" {
+		fmt.Fprintf(w, "  (%s)\n", note)
+	}
 	fmt.Fprintln(w, "\nFailure probabilities")
 	tw = tabwriter.NewWriter(w, 0, 0, 2, ' ', tabwriter.AlignRight)
 	fmt.Fprint(tw, "  mode\t")
