@@ -7,6 +7,8 @@ import (
 	"math"
 	"os"
 	"path/filepath"
+	"strconv"
+	"strings"
 	"testing"
 
 	"gonum.org/v1/plot"
@@ -137,5 +139,29 @@ func TestWriteAtomic(t *testing.T) {
 	ents, _ := os.ReadDir(dir)
 	if len(ents) != 1 {
 		t.Errorf("temporary files left: %v", ents)
+	}
+}
+
+func TestPlainTicksDropTrailingZeros(t *testing.T) {
+	// The labels keep the default ticker's values and significant digits
+	// and lose padding zeros only.
+	for _, c := range []struct {
+		lo, hi float64
+	}{{0, 250000}, {22, 88}, {0, 1}, {0.001, 0.0042}} {
+		def := plot.DefaultTicks{}.Ticks(c.lo, c.hi)
+		got := plainTicks{}.Ticks(c.lo, c.hi)
+		for i, tk := range got {
+			if tk.Label == "" {
+				continue
+			}
+			if strings.HasSuffix(tk.Label, ".") || strings.Contains(tk.Label, ".") && strings.HasSuffix(tk.Label, "0") {
+				t.Errorf("[%g, %g]: label %q keeps padding", c.lo, c.hi, tk.Label)
+			}
+			v, err := strconv.ParseFloat(tk.Label, 64)
+			w, _ := strconv.ParseFloat(def[i].Label, 64)
+			if err != nil || v != w {
+				t.Errorf("[%g, %g]: label %q for default %q", c.lo, c.hi, tk.Label, def[i].Label)
+			}
+		}
 	}
 }

@@ -3,6 +3,7 @@ package plots
 import (
 	"image/color"
 	"math"
+	"strings"
 
 	"gonum.org/v1/plot"
 	"gonum.org/v1/plot/vg"
@@ -64,6 +65,7 @@ func newPlot(title, x, y string) *plot.Plot {
 	for _, a := range []*plot.Axis{&p.X, &p.Y} {
 		a.Label.TextStyle.Font.Size = vg.Points(12)
 		a.Tick.Label.Font.Size = vg.Points(10)
+		a.Tick.Marker = plainTicks{}
 	}
 	p.Legend.TextStyle.Font.Size = vg.Points(10)
 	p.Legend.Top = true
@@ -76,4 +78,19 @@ func logHeadroom(floor, top float64, n int) float64 {
 	f := math.Min(float64(n)*vg.Points(13).Points()/(Height.Points()-vg.Points(70).Points()), 0.8)
 	d := math.Log10(top / floor)
 	return top * math.Pow(10, f*d/(1-f)+0.1)
+}
+
+// plainTicks are gonum/plot's default ticks with the trailing zeros of
+// their labels dropped ("250000.00" → "250000", "2.50" → "2.5"): the
+// default ticker pads every label of some ranges to two decimals.
+type plainTicks struct{}
+
+func (plainTicks) Ticks(lo, hi float64) []plot.Tick {
+	ts := plot.DefaultTicks{}.Ticks(lo, hi)
+	for i, t := range ts {
+		if strings.Contains(t.Label, ".") && !strings.ContainsAny(t.Label, "eE") {
+			ts[i].Label = strings.TrimSuffix(strings.TrimRight(t.Label, "0"), ".")
+		}
+	}
+	return ts
 }
