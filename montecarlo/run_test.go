@@ -230,6 +230,28 @@ func TestR1AgainstReference(t *testing.T) {
 	checkContains(t, "any", r.Any, 5.35727e-2)
 }
 
+// sameForWorkers runs p with each worker count and reports any result that
+// differs from the first (timing and worker count aside); it returns the
+// first result.
+func sameForWorkers(t *testing.T, p *montecarlo.Problem, set montecarlo.Settings, workers ...int) *montecarlo.Result {
+	t.Helper()
+	var first *montecarlo.Result
+	for _, w := range workers {
+		set.Workers = w
+		r, err := montecarlo.Run(context.Background(), p, set)
+		if err != nil {
+			t.Fatal(err)
+		}
+		r.Elapsed, r.Workers = 0, 0
+		if first == nil {
+			first = r
+		} else if !reflect.DeepEqual(first, r) {
+			t.Errorf("workers %d: result differs from workers %d", w, workers[0])
+		}
+	}
+	return first
+}
+
 func TestSameSeedAnyWorkers(t *testing.T) {
 	t.Parallel()
 	// Contract: the same seed gives bit-identical results for any worker count.
@@ -237,21 +259,7 @@ func TestSameSeedAnyWorkers(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	var first *montecarlo.Result
-	for _, w := range []int{1, 2, 3, 5} {
-		r, err := montecarlo.Run(context.Background(), &s.Problem, montecarlo.Settings{Samples: 150_000, Seed: 9, Workers: w})
-		if err != nil {
-			t.Fatal(err)
-		}
-		r.Elapsed, r.Workers = 0, 0
-		if first == nil {
-			first = r
-			continue
-		}
-		if !reflect.DeepEqual(first, r) {
-			t.Errorf("workers %d: result differs from workers 1", w)
-		}
-	}
+	first := sameForWorkers(t, &s.Problem, montecarlo.Settings{Samples: 150_000, Seed: 9}, 1, 2, 3, 5)
 	r, _ := montecarlo.Run(context.Background(), &s.Problem, montecarlo.Settings{Samples: 150_000, Seed: 10})
 	if r.Any.Failures == first.Any.Failures && r.PreloadMean == first.PreloadMean {
 		t.Error("a different seed gave the same result")
@@ -274,22 +282,7 @@ func TestLargeRunBinsSomeChunks(t *testing.T) {
 		{Name: "tightening.preload", Dist: mustDist(montecarlo.NewNormal(40e3, sd)), PerBolt: true, Field: fPreload},
 	}}
 	const n = 2*(1<<21) + 12345 // k = 2; a partial last chunk
-	var first *montecarlo.Result
-	for _, w := range []int{1, 3} {
-		r, err := montecarlo.Run(context.Background(), p, montecarlo.Settings{Samples: n, Seed: 4, Workers: w})
-		if err != nil {
-			t.Fatal(err)
-		}
-		r.Elapsed, r.Workers = 0, 0
-		if first == nil {
-			first = r
-			continue
-		}
-		if !reflect.DeepEqual(first, r) {
-			t.Errorf("workers %d: result differs from workers 1", w)
-		}
-	}
-	r := first
+	r := sameForWorkers(t, p, montecarlo.Settings{Samples: n, Seed: 4}, 1, 3)
 	var binned int64 // the samples of chunks 0, 2, 4, …
 	for c := int64(0); c*montecarlo.ChunkSize < n; c += 2 {
 		binned += min(montecarlo.ChunkSize, n-c*montecarlo.ChunkSize)
