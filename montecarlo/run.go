@@ -372,8 +372,8 @@ func (w *worker) runChunk(seed uint64, c int64, n int64) moments {
 func (w *worker) evalSimple(m int, v modeView, mom *moments) {
 	k := w.stride
 	rows, ptrs, b := w.rows[:m*k], w.simplePtrs[:k], &w.bolts[0]
-	for j := 0; j < len(rows); j += k {
-		setRow(ptrs, rows[j:j+k])
+	for j := range m {
+		setRow(ptrs, rows[j*k:j*k+k])
 		model.EvaluateBolt(&w.in, &w.stiff, w.set, b)
 		w.t.add(w.modes, v, w.bolts, mom)
 	}

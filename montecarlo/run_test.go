@@ -310,6 +310,23 @@ func TestLargeRunBinsSomeChunks(t *testing.T) {
 	}
 }
 
+func TestNoScatterRunsEverySample(t *testing.T) {
+	t.Parallel()
+	// A problem without uncertain inputs is the nominal joint in every
+	// sample: every sample is counted, and the modes that fail nominally
+	// fail in all of them.
+	in := joint()
+	in.Preload = 75e3 // above the proof load Sp·As − C·P ≈ 63.9 kN
+	r, err := montecarlo.Run(context.Background(), &montecarlo.Problem{Base: in}, montecarlo.Settings{Samples: 50_000, Seed: 1})
+	if err != nil {
+		t.Fatal(err)
+	}
+	m, _ := r.Mode(model.Proof)
+	if r.Samples != 50_000 || m.Interval.Failures != 50_000 || r.Any.Failures != 50_000 {
+		t.Errorf("samples %d, proof failures %d, any %d; want all 50000", r.Samples, m.Interval.Failures, r.Any.Failures)
+	}
+}
+
 func TestTargetStops(t *testing.T) {
 	t.Parallel()
 	in := joint()

@@ -116,3 +116,29 @@ func TestReviewDocuments(t *testing.T) {
 		t.Error("HTML refers to something outside itself")
 	}
 }
+
+func TestNoScatterWarning(t *testing.T) {
+	// A scenario without distributions is a nominal check repeated: the
+	// document says so.
+	s, err := scenario.Parse("fixed.yaml", []byte(`name: fixed
+bolt: {thread: M12, class: "10.9"}
+members: {layers: [{thickness: 15 mm, material: steel}, {thickness: 15 mm, material: steel}]}
+tightening: {torque: 100 N*m, nut_factor: 0.2}
+loads: {axial_max: 10 kN}
+`))
+	if err != nil {
+		t.Fatal(err)
+	}
+	r, err := montecarlo.Run(context.Background(), &s.Problem, montecarlo.Settings{Samples: 1000, Seed: 1})
+	if err != nil {
+		t.Fatal(err)
+	}
+	doc := Simulation(s, r, 0, "test")
+	found := false
+	for _, w := range doc.Warnings {
+		found = found || strings.Contains(w, "no input has a distribution")
+	}
+	if !found || r.Samples != 1000 {
+		t.Errorf("samples %d, warnings %q", r.Samples, doc.Warnings)
+	}
+}

@@ -103,6 +103,9 @@ func Simulation(s *scenario.Scenario, r *montecarlo.Result, target float64, vers
 	for q := montecarlo.QPreload; q <= montecarlo.QClamp; q++ {
 		doc.Percentiles[q.Key()] = percentiles(&r.Q[q])
 	}
+	if len(s.Problem.Vars) == 0 {
+		doc.Warnings = append(doc.Warnings, "no input has a distribution: every sample is the nominal joint, so each mode fails in all samples or in none — give the scatter of the torque, nut factor or friction, loads and strengths")
+	}
 	if r.Invalid > 0 {
 		doc.Warnings = append(doc.Warnings, fmt.Sprintf("%d samples lay outside the model's domain (e.g. a negative nut factor drawn from a normal distribution); they are counted here and left out of the probabilities — consider a lognormal or truncated distribution", r.Invalid))
 	}
