@@ -93,7 +93,7 @@ func SimulationReview(s *scenario.Scenario, doc SimDoc, figs []Figure, prov Prov
 			pt.Rows = append(pt.Rows, row)
 		}
 	}
-	para := []string{"Forces over every bolt of every sample; safety factors of the joint, that is of its worst bolt in each sample."}
+	para := []string{"Forces over every bolt of each sample; safety factors of the joint, that is of its worst bolt in each sample."}
 	if note := BinnedNote(doc.BinnedSamples, doc.Samples, doc.BinStride); note != "" {
 		para = append(para, "P"+note[1:]+".")
 	}

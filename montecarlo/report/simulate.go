@@ -186,7 +186,7 @@ func WriteSimulation(w io.Writer, s *scenario.Scenario, doc SimDoc, sys units.Sy
 		fmt.Fprintf(w, "  (%s)\n", note)
 	}
 	if doc.BoltsPerSample > 1 {
-		fmt.Fprintln(w, "  (forces: every bolt of every sample; safety factors: the joint, i.e. its worst bolt)")
+		fmt.Fprintln(w, "  (forces: every bolt of each sample; safety factors: the joint, i.e. its worst bolt)")
 	}
 	tw = tabwriter.NewWriter(w, 0, 0, 2, ' ', tabwriter.AlignRight)
 	fmt.Fprint(tw, "  quantity\t")
