@@ -62,32 +62,33 @@ type vstate struct {
 type pairedWorker struct {
 	vs []*vstate
 	// The universe's variates for one block, row by row as in worker:
-	// zShared[j·ns+i] and zBolt[bolt][j·nb+i] is variate i of sample j.
-	zShared     []float64
-	zBolt       [][]float64
-	ns, nb      int // universe sizes
-	block       int
-	pcg         rand.PCG
-	onlyBase    [][model.NumModes + 1]int64
-	onlyVariant [][model.NumModes + 1]int64
-	pairs       int64
-	modes       []model.Mode
-	binStride   int64 // as in worker
-	_           [64]byte
+	// zShared[j·nShared+i] and zBolt[bolt][j·nPerBolt+i] is variate i of
+	// sample j.
+	zShared           []float64
+	zBolt             [][]float64
+	nShared, nPerBolt int // universe sizes
+	block             int
+	pcg               rand.PCG
+	onlyBase          [][model.NumModes + 1]int64
+	onlyVariant       [][model.NumModes + 1]int64
+	pairs             int64
+	modes             []model.Mode
+	binStride         int64 // as in worker
+	_                 [64]byte
 }
 
 // drawBlock draws the variates of the next n samples in the order of
 // worker.drawBlock, so that a variant whose inputs are the whole universe
 // (normal or lognormal) sees the draws of a separate run with the same seed.
 func (w *pairedWorker) drawBlock(n int) {
-	rows := w.zShared[:n*w.ns]
-	for i := range w.ns {
-		normals(&w.pcg, rows[i:], w.ns)
+	rows := w.zShared[:n*w.nShared]
+	for i := range w.nShared {
+		normals(&w.pcg, rows[i:], w.nShared)
 	}
 	for _, zb := range w.zBolt {
-		rows := zb[:n*w.nb]
-		for i := range w.nb {
-			normals(&w.pcg, rows[i:], w.nb)
+		rows := zb[:n*w.nPerBolt]
+		for i := range w.nPerBolt {
+			normals(&w.pcg, rows[i:], w.nPerBolt)
 		}
 	}
 }
@@ -220,17 +221,17 @@ func RunPaired(ctx context.Context, ps []*Problem, s Settings) (*Paired, error) 
 	u := newUniverse(ps)
 	workers := make([]*pairedWorker, s.Workers)
 	for w := range workers {
-		pw := &pairedWorker{modes: modes, ns: len(u.shared), nb: len(u.perBolt), binStride: binStride(s.Samples),
+		pw := &pairedWorker{modes: modes, nShared: len(u.shared), nPerBolt: len(u.perBolt), binStride: binStride(s.Samples),
 			onlyBase: make([][model.NumModes + 1]int64, len(ps)), onlyVariant: make([][model.NumModes + 1]int64, len(ps))}
-		boltRows := 0
-		if pw.nb > 0 {
-			boltRows = nb
+		drawnBolts := 0 // bolts drawing their own variates
+		if pw.nPerBolt > 0 {
+			drawnBolts = nb
 		}
-		pw.block = blockLen(pw.ns + boltRows*pw.nb)
-		pw.zShared = make([]float64, pw.ns*pw.block, pw.ns*pw.block+8) // spare room: no shared line
-		pw.zBolt = make([][]float64, boltRows)
+		pw.block = blockLen(pw.nShared + drawnBolts*pw.nPerBolt)
+		pw.zShared = make([]float64, pw.nShared*pw.block, pw.nShared*pw.block+8) // spare room: no shared line
+		pw.zBolt = make([][]float64, drawnBolts)
 		for b := range pw.zBolt {
-			pw.zBolt[b] = make([]float64, pw.nb*pw.block, pw.nb*pw.block+8)
+			pw.zBolt[b] = make([]float64, pw.nPerBolt*pw.block, pw.nPerBolt*pw.block+8)
 		}
 		for i, p := range ps {
 			st, err := newVState(p, plans[i], u, modes, &ranges)
@@ -296,7 +297,7 @@ func (w *pairedWorker) runChunk(seed uint64, c, n int64, mom []moments) {
 // sample evaluates sample j of the drawn block in every variant and counts
 // the discordant pairs.
 func (w *pairedWorker) sample(j int, fails []model.ModeSet, valid []bool, mom []moments) {
-	zs := w.zShared[j*w.ns : j*w.ns+w.ns]
+	zs := w.zShared[j*w.nShared : (j+1)*w.nShared]
 	for i, st := range w.vs {
 		st.shared.apply(zs)
 		if st.pl.stiffVaries {
@@ -304,7 +305,7 @@ func (w *pairedWorker) sample(j int, fails []model.ModeSet, valid []bool, mom []
 		}
 		for b := range st.bolts {
 			if w.zBolt != nil {
-				st.perBolt.apply(w.zBolt[b][j*w.nb : j*w.nb+w.nb])
+				st.perBolt.apply(w.zBolt[b][j*w.nPerBolt : (j+1)*w.nPerBolt])
 			}
 			model.EvaluateBolt(&st.in, &st.stiff, st.set, &st.bolts[b])
 		}

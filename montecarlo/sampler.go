@@ -13,7 +13,7 @@ type group struct {
 	items  []drawItem
 	ptrs   []*float64 // the items' fields, in item order
 	copula *Copula    // nil when the group is uncorrelated
-	eps    []float64
+	eps    []float64  // scratch of fromNormals for a correlated group
 }
 
 // drawItem is one input of a group, laid out for the sampling loop: the
@@ -197,7 +197,7 @@ func (pl *plan) newGroup(p *Problem, idx []int, corr []Correlation, in *model.In
 			return g, err
 		}
 		g.copula = c
+		g.eps = make([]float64, len(idx), len(idx)+8) // spare room: no shared cache line
 	}
-	g.eps = make([]float64, len(idx), len(idx)+8) // spare room: no shared cache line
 	return g, nil
 }
