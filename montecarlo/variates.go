@@ -23,7 +23,7 @@ import (
 // The ziggurat of Marsaglia & Tsang, "The Ziggurat Method for Generating
 // Random Variables", J. Statist. Software 5(8), 2000: 128 layers of area
 // zigV under exp(−x²/2), the base layer carrying the tail beyond zigR. The two
-// constants are those of the paper's RNOR; normal_test.go re-derives them
+// constants are those of the paper's RNOR; variates_test.go re-derives them
 // from the layer equations. The layer index and the abscissa come from
 // disjoint bits of one 64-bit draw (the defect of taking both from the same
 // 32 bits is Doornik's, "An Improved Ziggurat Method to Generate Normal
@@ -67,7 +67,7 @@ func normals(p *rand.PCG, dst []float64, stride int) {
 		u := p.Uint64()
 		s := int64(u) >> 10
 		if i := u & (zigLayers - 1); abs64(s) < zigK[i] {
-			dst[j] = float64(s) * zigW[i] // inside the layer's rectangle: > 98 % of draws
+			dst[j] = float64(s) * zigW[i] // inside the layer's rectangle: about 97 % of draws
 		} else {
 			dst[j] = normalEdge(p, u)
 		}
