@@ -85,20 +85,12 @@ func TestSeparationLognormalRatio(t *testing.T) {
 	t.Parallel()
 	// Ratio of lognormals: Fi = T/(K·d) with K ~ LN(μK, σK), P ~ LN(μP, σP), T fixed.
 	// Separation when P·(1 − C) ≥ T/(K·d) ⇔ ln P + ln K ≥ ln(T/(d(1 − C))):
-	//   p = 1 − Φ((ln(T/(d(1 − C))) − μP − μK)/√(σP² + σK²))  (closed form).
-	in := joint()
-	in.Method, in.Torque, in.NutFactor = model.NutFactorMethod, 100e3, 0.2
-	k := mustDist(montecarlo.NewLogNormalMoments(0.2, 0.2*0.15))
-	pl := mustDist(montecarlo.NewLogNormalMoments(28e3, 28e3*0.2))
-	p := &montecarlo.Problem{Base: in, Vars: []montecarlo.Var{
-		{Name: "tightening.nut_factor", Dist: k, PerBolt: true, Field: fNutFactor},
-		{Name: "loads.axial_max", Dist: pl, Field: fAxial},
-	}}
-	s := model.ComputeStiffness(&in)
-	exact := 1 - distuv.UnitNormal.CDF((math.Log(100e3/(12*(1-s.C)))-pl.A-k.A)/math.Hypot(pl.B, k.B))
+	//   p = 1 − Φ((ln(T/(d(1 − C))) − μP − μK)/√(σP² + σK²))  (closed form,
+	// lognormalCase in study_test.go).
+	p, exact := lognormalCase()
 	r := run(t, p, 400_000, 5)
 	m, _ := r.Mode(model.Separation)
-	checkContains(t, "separation (lognormal ratio)", m.Interval, exact)
+	checkContains(t, "separation (lognormal ratio)", m.Interval, exact(p.Base.Torque))
 }
 
 func TestProofUniformPreload(t *testing.T) {
