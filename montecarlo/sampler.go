@@ -3,6 +3,7 @@ package montecarlo
 import (
 	"fmt"
 	"math/rand/v2"
+	"strings"
 
 	"boltrisk/model"
 )
@@ -131,15 +132,15 @@ type plan struct {
 	needJoint bool
 }
 
-// stiffnessInputs are the paths whose uncertainty forces the stiffness to be
-// recomputed per sample.
+// touchesStiffness reports whether an uncertain input at this path forces
+// the stiffness to be recomputed per sample.
 func touchesStiffness(name string) bool {
 	switch name {
 	case "bolt.modulus", "bolt.shank_in_grip", "bolt.bearing_diameter", "bolt.hole_diameter",
 		"members.stiffness", "members.load_introduction":
 		return true
 	}
-	return len(name) > len("members.layers.") && name[:len("members.layers.")] == "members.layers."
+	return strings.HasPrefix(name, "members.layers.")
 }
 
 func newPlan(p *Problem) (*plan, error) {
