@@ -14,6 +14,7 @@ import (
 	"gonum.org/v1/gonum/stat/distuv"
 
 	"boltrisk/model"
+	"boltrisk/montecarlo/rng"
 )
 
 // Paired is the result of running several variants of one joint in lock
@@ -83,12 +84,12 @@ type pairedWorker struct {
 func (w *pairedWorker) drawBlock(n int) {
 	rows := w.zShared[:n*w.nShared]
 	for i := range w.nShared {
-		normals(&w.pcg, rows[i:], w.nShared)
+		rng.Normals(&w.pcg, rows[i:], w.nShared)
 	}
 	for _, zb := range w.zBolt {
 		rows := zb[:n*w.nPerBolt]
 		for i := range w.nPerBolt {
-			normals(&w.pcg, rows[i:], w.nPerBolt)
+			rng.Normals(&w.pcg, rows[i:], w.nPerBolt)
 		}
 	}
 }
@@ -279,7 +280,7 @@ func RunPaired(ctx context.Context, ps []*Problem, s Settings) (*Paired, error) 
 }
 
 func (w *pairedWorker) runChunk(seed uint64, c, n int64, mom []moments) {
-	w.pcg.Seed(streamSeed(seed, uint64(c)))
+	rng.Seed(&w.pcg, seed, uint64(c))
 	for _, st := range w.vs {
 		st.t.hist = c%w.binStride == 0
 	}

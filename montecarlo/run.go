@@ -13,6 +13,7 @@ import (
 	"time"
 
 	"boltrisk/model"
+	"boltrisk/montecarlo/rng"
 )
 
 // ChunkSize is the number of samples drawn from one random stream. It is part
@@ -274,21 +275,6 @@ func newWorker(p *Problem, pl *plan, modes []model.Mode, r *Ranges, binStride in
 	return w, nil
 }
 
-// streamSeed hashes (seed, chunk) into the two PCG seed words with SplitMix64
-// (Steele, Lea & Flood, OOPSLA 2014), so that neighbouring chunks and seeds
-// give unrelated streams.
-func streamSeed(seed, chunk uint64) (uint64, uint64) {
-	a := splitmix(seed ^ splitmix(chunk+0x632be59bd9b4e019))
-	return a, splitmix(a ^ 0xd1b54a32d192ed03)
-}
-
-func splitmix(x uint64) uint64 {
-	x += 0x9e3779b97f4a7c15
-	x = (x ^ (x >> 30)) * 0xbf58476d1ce4e5b9
-	x = (x ^ (x >> 27)) * 0x94d049bb133111eb
-	return x ^ (x >> 31)
-}
-
 // drawBlock draws the inputs of the next n ≤ w.block samples: the shared
 // inputs, then each bolt's; within a group input by input, each input's n
 // values in sample order. This order is part of the reproducibility contract.
@@ -343,7 +329,7 @@ type modeView struct {
 // runChunk evaluates n samples of chunk c into the worker's tally and
 // returns the chunk's floating sums.
 func (w *worker) runChunk(seed uint64, c int64, n int64) moments {
-	w.pcg.Seed(streamSeed(seed, uint64(c)))
+	rng.Seed(&w.pcg, seed, uint64(c))
 	w.t.hist = w.binStride > 0 && c%w.binStride == 0
 	var mom moments
 	v := w.view()
@@ -653,7 +639,7 @@ func pilotRanges(p *Problem, pl *plan, seed uint64) (*Ranges, error) {
 	if err != nil {
 		return nil, err
 	}
-	w.pcg.Seed(streamSeed(seed, math.MaxUint64))
+	rng.Seed(&w.pcg, seed, math.MaxUint64)
 	var lo, hi Ranges
 	for q := range lo.Q {
 		lo.Q[q] = [2]float64{math.Inf(1), math.Inf(-1)}

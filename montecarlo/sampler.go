@@ -6,6 +6,7 @@ import (
 	"strings"
 
 	"boltrisk/model"
+	"boltrisk/montecarlo/rng"
 )
 
 // group is a set of inputs drawn together: either the shared inputs of a
@@ -59,7 +60,7 @@ func (g *group) fill(p *rand.PCG, rows []float64, stride, m int) {
 		return
 	}
 	for i := range n {
-		normals(p, rows[i:], stride)
+		rng.Normals(p, rows[i:], stride)
 	}
 	for j := 0; j < len(rows); j += stride {
 		row := rows[j : j+n]
@@ -75,18 +76,18 @@ func (it *drawItem) fill(p *rand.PCG, dst []float64, stride int) {
 	a, b := it.a, it.b
 	switch it.kind {
 	case Normal:
-		normals(p, dst, stride)
+		rng.Normals(p, dst, stride)
 		for j := 0; j < len(dst); j += stride {
 			dst[j] = a + b*dst[j]
 		}
 	case LogNormal:
-		normals(p, dst, stride)
+		rng.Normals(p, dst, stride)
 		for j := 0; j < len(dst); j += stride {
-			dst[j] = exp(a + b*dst[j])
+			dst[j] = rng.Exp(a + b*dst[j])
 		}
 	default:
 		for j := 0; j < len(dst); j += stride {
-			dst[j] = it.dist.FromUniform(unit(p))
+			dst[j] = it.dist.FromUniform(rng.Unit(p))
 		}
 	}
 }

@@ -1,4 +1,4 @@
-package montecarlo
+package rng
 
 import (
 	"math"
@@ -11,7 +11,7 @@ import (
 
 func TestZigguratConstants(t *testing.T) {
 	// Re-derive Marsaglia & Tsang's constants from the layer equations with
-	// f(x) = exp(−x²/2): the base layer holds r·f(r) plus the tail
+	// f(x) = Exp(−x²/2): the base layer holds r·f(r) plus the tail
 	// ∫ᵣ^∞ f = √(2π)·Q(r) (gonum's normal survival function as reference),
 	// and the recursion from r upwards must close the top layer,
 	// x₁·(1 − f(x₁)) = v.
@@ -42,9 +42,9 @@ func TestNormalsDistribution(t *testing.T) {
 	var p rand.PCG
 	p.Seed(1, 2)
 	z := make([]float64, n)
-	normals(&p, z[:n/2], 1)
-	normals(&p, z[n/2:], 2) // strided, as the runner fills its rows
-	normals(&p, z[n/2+1:], 2)
+	Normals(&p, z[:n/2], 1)
+	Normals(&p, z[n/2:], 2) // strided, as the runner fills its rows
+	Normals(&p, z[n/2+1:], 2)
 	var sum, ssq float64
 	for _, x := range z {
 		if math.IsNaN(x) || math.IsInf(x, 0) {
@@ -91,7 +91,7 @@ func TestUnitOpen(t *testing.T) {
 	}
 	var p rand.PCG
 	for range 1000 {
-		if x := unit(&p); !(x > 0 && x < 1) {
+		if x := Unit(&p); !(x > 0 && x < 1) {
 			t.Fatalf("unit %g", x)
 		}
 	}
@@ -102,10 +102,10 @@ func TestExp(t *testing.T) {
 	// the table range, identical results outside it.
 	worst := 0.0
 	check := func(x float64) {
-		got, want := exp(x), math.Exp(x)
+		got, want := Exp(x), math.Exp(x)
 		if math.Abs(x) >= 700 || math.IsNaN(x) {
 			if !(got == want || math.IsNaN(got) && math.IsNaN(want)) {
-				t.Errorf("exp(%g) = %g, math.Exp %g", x, got, want)
+				t.Errorf("Exp(%g) = %g, math.Exp %g", x, got, want)
 			}
 			return
 		}
@@ -114,8 +114,8 @@ func TestExp(t *testing.T) {
 	var p rand.PCG
 	p.Seed(3, 4)
 	for range 1 << 20 {
-		check(-700 + 1400*unit(&p))
-		check(-3 + 6*unit(&p)) // the range of lognormal draws
+		check(-700 + 1400*Unit(&p))
+		check(-3 + 6*Unit(&p)) // the range of lognormal draws
 	}
 	for _, x := range []float64{0, math.Copysign(0, -1), 1, -1, math.Ln2, 1e-300, -1e-300, 699.99, -699.99, 700, -700,
 		709.78, 710, -745, -746, math.Inf(1), math.Inf(-1), math.NaN()} {
@@ -124,8 +124,8 @@ func TestExp(t *testing.T) {
 	if worst > 0x1p-51 {
 		t.Errorf("largest relative error %.3g, want ≤ 2⁻⁵¹ = %.3g", worst, 0x1p-51)
 	}
-	if exp(0) != 1 {
-		t.Errorf("exp(0) = %v", exp(0))
+	if Exp(0) != 1 {
+		t.Errorf("Exp(0) = %v", Exp(0))
 	}
 }
 
@@ -140,7 +140,7 @@ func BenchmarkVariates(b *testing.B) {
 	}
 	b.Run("normals", func(b *testing.B) {
 		for b.Loop() {
-			normals(&p, col, 1)
+			Normals(&p, col, 1)
 		}
 		per(b)
 	})
@@ -152,12 +152,12 @@ func BenchmarkVariates(b *testing.B) {
 		}
 		per(b)
 	})
-	normals(&p, col, 1)
+	Normals(&p, col, 1)
 	out := make([]float64, len(col))
 	b.Run("exp", func(b *testing.B) {
 		for b.Loop() {
 			for j, z := range col {
-				out[j] = exp(-1.6 + 0.12*z)
+				out[j] = Exp(-1.6 + 0.12*z)
 			}
 		}
 		per(b)

@@ -1,4 +1,4 @@
-package montecarlo
+package rng
 
 import (
 	"math"
@@ -60,9 +60,9 @@ func zigTables() (k [zigLayers]int64, w, f [zigLayers]float64) {
 	return k, w, f
 }
 
-// normals fills dst[0], dst[stride], dst[2·stride], … with standard normal
+// Normals fills dst[0], dst[stride], dst[2·stride], … with standard normal
 // variates from p.
-func normals(p *rand.PCG, dst []float64, stride int) {
+func Normals(p *rand.PCG, dst []float64, stride int) {
 	for j := 0; j < len(dst); j += stride {
 		u := p.Uint64()
 		s := int64(u) >> 10
@@ -86,8 +86,8 @@ func normalEdge(p *rand.PCG, u uint64) float64 {
 		}
 		if i == 0 {
 			for {
-				x = -math.Log(unit(p)) / zigR
-				if y := -math.Log(unit(p)); y+y >= x*x {
+				x = -math.Log(Unit(p)) / zigR
+				if y := -math.Log(Unit(p)); y+y >= x*x {
 					break
 				}
 			}
@@ -96,16 +96,16 @@ func normalEdge(p *rand.PCG, u uint64) float64 {
 			}
 			return -zigR - x
 		}
-		if zigF[i]+unit(p)*(zigF[i-1]-zigF[i]) < exp(-0.5*x*x) {
+		if zigF[i]+Unit(p)*(zigF[i-1]-zigF[i]) < Exp(-0.5*x*x) {
 			return x
 		}
 		u = p.Uint64()
 	}
 }
 
-// unit returns a uniform variate in the open interval (0, 1), never 0 or 1,
+// Unit returns a uniform variate in the open interval (0, 1), never 0 or 1,
 // so that inverse CDFs stay finite.
-func unit(p *rand.PCG) float64 {
+func Unit(p *rand.PCG) float64 {
 	// 52 bits, so that the largest value 1 − 2⁻⁵³ is exact (53 bits plus the
 	// half would round up to 1).
 	return (float64(p.Uint64()>>12) + 0.5) * 0x1p-52
@@ -116,14 +116,14 @@ func abs64(s int64) int64 {
 	return (s ^ m) - m
 }
 
-// exp returns eˣ to within 2⁻⁵¹ relative error of math.Exp for |x| < 700 and
+// Exp returns eˣ to within 2⁻⁵¹ relative error of math.Exp for |x| < 700 and
 // defers to math.Exp elsewhere (overflow, underflow, NaN, ±Inf). It is the
 // table-driven method of Tang ("Table-driven implementation of the
 // exponential function in IEEE floating-point arithmetic", ACM TOMS 15(2),
 // 1989): x = (k + j/128)·ln 2 + r with |r| ≤ ln 2/256, eˣ = 2^k · 2^(j/128) ·
 // e^r, the 128 powers 2^(j/128) from a table and e^r from its Taylor series
 // to r⁵ (truncation below 10⁻¹⁸).
-func exp(x float64) float64 {
+func Exp(x float64) float64 {
 	if !(math.Abs(x) < 700) {
 		return math.Exp(x)
 	}
