@@ -157,8 +157,28 @@ func (o *Outcome) Margin(m Mode) float64 { return o.Capacity[m] - o.Demand[m] }
 // along the load line).
 func (o *Outcome) SafetyFactor(m Mode) float64 { return o.Capacity[m] / o.Demand[m] }
 
-// Fails reports whether an active mode has a margin ≤ 0.
-func (o *Outcome) Fails(m Mode) bool { return o.Active[m] && o.Capacity[m] <= o.Demand[m] }
+// Fails reports whether the active mode m fails ([Failed]).
+func (o *Outcome) Fails(m Mode) bool { return o.Active[m] && Failed(o.Capacity[m], o.Demand[m]) }
+
+// Failures returns the active modes of set that the joint fails.
+func (o *Outcome) Failures(set ModeSet) ModeSet {
+	return failures(set, &o.Active, &o.Capacity, &o.Demand)
+}
+
+// Failures returns the active modes of set that the bolt fails.
+func (b *BoltResult) Failures(set ModeSet) ModeSet {
+	return failures(set, &b.Active, &b.Capacity, &b.Demand)
+}
+
+func failures(set ModeSet, active *[NumModes]bool, capacity, demand *[NumModes]float64) ModeSet {
+	var f ModeSet
+	for m := range NumModes {
+		if set.Has(m) && active[m] && Failed(capacity[m], demand[m]) {
+			f |= 1 << m
+		}
+	}
+	return f
+}
 
 const (
 	twoPi   = 2 * math.Pi
@@ -515,4 +535,12 @@ func Evaluate(in *Inputs, out *Outcome) {
 	EvaluateJoint(in, &s, b[:], out)
 	out.Stiffness = s
 	out.Bolt = b[0]
+}
+
+// ScaleLoads multiplies every service load (axial maximum and minimum, shear)
+// by f.
+func (in *Inputs) ScaleLoads(f float64) {
+	in.AxialMax *= f
+	in.AxialMin *= f
+	in.ShearLoad *= f
 }

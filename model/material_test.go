@@ -1,4 +1,6 @@
-package model
+package model_test
+
+import "boltrisk/model"
 
 import "testing"
 
@@ -27,7 +29,7 @@ func TestPropertyClasses(t *testing.T) {
 		// ISO 3506-1 A2-70: Rp0.2 450, Rm 700 (secondary source); Sp = Rp0.2 common practice.
 		{"A2-70", 12, 450, 450, 700, 1e-9},
 	} {
-		c, err := LookupClass(test.class, test.d)
+		c, err := model.LookupClass(test.class, test.d)
 		if err != nil {
 			t.Fatalf("%s: %v", test.class, err)
 		}
@@ -35,10 +37,10 @@ func TestPropertyClasses(t *testing.T) {
 		near(t, test.class+" Sy", c.Yield, test.sy, test.tol)
 		near(t, test.class+" Sut", c.Tensile, test.sut, test.tol)
 	}
-	if _, err := LookupClass("9.8", 20); err == nil {
+	if _, err := model.LookupClass("9.8", 20); err == nil {
 		t.Error("9.8 is made only up to M16 (ISO 898-1): want error for d = 20")
 	}
-	if _, err := LookupClass("11.9", 12); err == nil {
+	if _, err := model.LookupClass("11.9", 12); err == nil {
 		t.Error("unknown class: want error")
 	}
 }
@@ -56,8 +58,8 @@ func TestProofLoads(t *testing.T) {
 		{"M8", "8.8", 21.2},
 		{"M24", "12.9", 342.4},
 	} {
-		th, _ := LookupThread(test.thread)
-		c, _ := LookupClass(test.class, th.D)
+		th, _ := model.LookupThread(test.thread)
+		c, _ := model.LookupClass(test.class, th.D)
 		near(t, test.thread+" "+test.class+" proof load", th.StressArea*c.Proof/1000, test.kN, 0.003)
 	}
 }
@@ -66,7 +68,6 @@ func TestRCSCPretension(t *testing.T) {
 	t.Parallel()
 	// RCSC Table 8.1 / AISC Table J3.1 minimum pretension = 0.70·Fu·At,
 	// rounded to kip (confirmed): 3/4 in A325 → 28 kip, 1 in A490 → 64 kip.
-	const kip = 4448.2216152605
 	for _, test := range []struct {
 		thread, class string
 		kip           float64
@@ -75,8 +76,8 @@ func TestRCSCPretension(t *testing.T) {
 		{"1-8 UNC", "A490", 64},
 		{"1/2-13 UNC", "A325", 12},
 	} {
-		th, _ := LookupThread(test.thread)
-		c, _ := LookupClass(test.class, th.D)
+		th, _ := model.LookupThread(test.thread)
+		c, _ := model.LookupClass(test.class, th.D)
 		got := 0.7 * c.Tensile * th.StressArea / kip
 		if got < test.kip-0.5 || got >= test.kip+0.5 {
 			t.Errorf("%s %s: 0.7·Fu·At = %.2f kip, want %g kip after rounding", test.thread, test.class, got, test.kip)
@@ -87,25 +88,25 @@ func TestRCSCPretension(t *testing.T) {
 func TestEndurance(t *testing.T) {
 	t.Parallel()
 	// Shigley Table 8-17 (confirmed).
-	c, _ := LookupClass("10.9", 12)
+	c, _ := model.LookupClass("10.9", 12)
 	near(t, "10.9 Se", c.Endurance, 162, 1e-12)
-	c, _ = LookupClass("SAE 5", 12.7)
+	c, _ = model.LookupClass("SAE 5", 12.7)
 	near(t, "SAE 5 Se", c.Endurance, 18.6*ksi, 1e-12)
 	// VDI 2230-1 σASV = 0.85·(150/d + 45) (formula from memory; values derived,
 	// reference sheet §3.2): M12 48.9, M16 46.2, M24 43.6 MPa.
-	near(t, "σASV M12", VDIEndurance(12), 48.9, 0.002)
-	near(t, "σASV M16", VDIEndurance(16), 46.2, 0.002)
-	near(t, "σASV M24", VDIEndurance(24), 43.6, 0.002)
+	near(t, "σASV M12", model.VDIEndurance(12), 48.9, 0.002)
+	near(t, "σASV M16", model.VDIEndurance(16), 46.2, 0.002)
+	near(t, "σASV M24", model.VDIEndurance(24), 43.6, 0.002)
 }
 
 func TestMaterials(t *testing.T) {
 	t.Parallel()
 	// Shigley Table A-5 (confirmed): steel 207 GPa, aluminium 71.7 GPa.
-	m, _ := LookupMaterial("Steel")
+	m, _ := model.LookupMaterial("Steel")
 	near(t, "steel E", m.Modulus, 207000, 1e-12)
-	m, _ = LookupMaterial("aluminum")
+	m, _ = model.LookupMaterial("aluminum")
 	near(t, "aluminium E", m.Modulus, 71700, 1e-12)
-	if _, err := LookupMaterial("unobtainium"); err == nil {
+	if _, err := model.LookupMaterial("unobtainium"); err == nil {
 		t.Error("want error for unknown material")
 	}
 }

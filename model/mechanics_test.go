@@ -1,6 +1,8 @@
-package model
+package model_test
 
 import (
+	"boltrisk/model"
+
 	"math"
 	"testing"
 )
@@ -8,7 +10,7 @@ import (
 func TestJointConstantR1(t *testing.T) {
 	t.Parallel()
 	in := r1()
-	s := ComputeStiffness(&in)
+	s := model.ComputeStiffness(&in)
 	// Shigley Eq. 8-17, worked by hand from the formula:
 	// kb = Ad·At·E/(Ad·lt + At·ld), Ad = π·12²/4, At = 84.27 (formula value), ld = 10, lt = 20.
 	ad, at := math.Pi*36, in.Thread.StressArea
@@ -27,17 +29,17 @@ func TestFrustumTwoEqualMembers(t *testing.T) {
 	for _, test := range []struct{ d, l, e float64 }{
 		{12, 30, 207000}, {16, 40, 207000}, {20, 25, 71700}, {8, 60, 100000},
 	} {
-		in := Inputs{NLayers: 2, BearingDia: 1.5 * test.d}
+		in := model.Inputs{NLayers: 2, BearingDia: 1.5 * test.d}
 		in.Thread.D = test.d
-		in.Layers[0] = Layer{Thickness: test.l / 2, Modulus: test.e}
-		in.Layers[1] = Layer{Thickness: test.l / 2, Modulus: test.e}
+		in.Layers[0] = model.Layer{Thickness: test.l / 2, Modulus: test.e}
+		in.Layers[1] = model.Layer{Thickness: test.l / 2, Modulus: test.e}
 		want := 0.5774 * math.Pi * test.e * test.d / (2 * math.Log(5*(0.5774*test.l+0.5*test.d)/(0.5774*test.l+2.5*test.d)))
-		near(t, "km Eq. 8-22", memberStiffness(&in), want, 2e-4)
+		near(t, "km Eq. 8-22", model.ComputeStiffness(&in).Km, want, 2e-4)
 		// Splitting one member into two layers of the same material changes nothing.
 		in.NLayers = 3
 		in.Layers[2] = in.Layers[1]
 		in.Layers[1].Thickness, in.Layers[2].Thickness = test.l/6, test.l/3
-		near(t, "km three layers", memberStiffness(&in), want, 2e-4)
+		near(t, "km three layers", model.ComputeStiffness(&in).Km, want, 2e-4)
 	}
 }
 
@@ -52,15 +54,15 @@ func TestFrustumMixedMaterials(t *testing.T) {
 	t1, t2 := 20.0, 25.0
 	l := t1 + t2
 	es, ec := 207000.0, 100000.0
-	k1 := FrustumStiffness(es, d, dw, t1, math.Pi/6)
-	k2 := FrustumStiffness(ec, d, dw+2*t1*math.Tan(math.Pi/6), l/2-t1, math.Pi/6)
-	k3 := FrustumStiffness(ec, d, dw, l/2, math.Pi/6)
+	k1 := model.FrustumStiffness(es, d, dw, t1, math.Pi/6)
+	k2 := model.FrustumStiffness(ec, d, dw+2*t1*math.Tan(math.Pi/6), l/2-t1, math.Pi/6)
+	k3 := model.FrustumStiffness(ec, d, dw, l/2, math.Pi/6)
 	want := 1 / (1/k1 + 1/k2 + 1/k3)
-	in := Inputs{NLayers: 2, BearingDia: dw}
+	in := model.Inputs{NLayers: 2, BearingDia: dw}
 	in.Thread.D = d
-	in.Layers[0] = Layer{Thickness: t1, Modulus: es}
-	in.Layers[1] = Layer{Thickness: t2, Modulus: ec}
-	near(t, "km mixed", memberStiffness(&in), want, 1e-12)
+	in.Layers[0] = model.Layer{Thickness: t1, Modulus: es}
+	in.Layers[1] = model.Layer{Thickness: t2, Modulus: ec}
+	near(t, "km mixed", model.ComputeStiffness(&in).Km, want, 1e-12)
 	// Eq. 8-20 written out for the cast-iron frustum (0.5774 = tan 30°).
 	num := (1.155*l/2 + dw - d) * (dw + d)
 	den := (1.155*l/2 + dw + d) * (dw - d)
@@ -79,9 +81,9 @@ func TestGoodmanGerberASME(t *testing.T) {
 		good := se * (sut - si) / (sa * (sut + se))
 		gerb := (sut*math.Sqrt(sut*sut+4*se*(se+si)) - sut*sut - 2*si*se) / (2 * sa * se)
 		asme := se / (sa * (sp*sp + se*se)) * (sp*math.Sqrt(sp*sp+se*se-si*si) - si*se)
-		near(t, "Goodman 8-45", StrengthAmplitude(Goodman, se, sut, sp, si, 1)/sa, good, 1e-12)
-		near(t, "Gerber 8-46", StrengthAmplitude(Gerber, se, sut, sp, si, 1)/sa, gerb, 1e-9)
-		near(t, "ASME-elliptic 8-47", StrengthAmplitude(ASMEElliptic, se, sut, sp, si, 1)/sa, asme, 1e-9)
+		near(t, "Goodman 8-45", model.StrengthAmplitude(model.Goodman, se, sut, sp, si, 1)/sa, good, 1e-12)
+		near(t, "Gerber 8-46", model.StrengthAmplitude(model.Gerber, se, sut, sp, si, 1)/sa, gerb, 1e-9)
+		near(t, "ASME-elliptic 8-47", model.StrengthAmplitude(model.ASMEElliptic, se, sut, sp, si, 1)/sa, asme, 1e-9)
 	}
 	// General load line, Goodman: Shigley Eq. 8-38
 	//   nf = Se(Sut − σi)/(Sut·σa + Se(σm − σi)), C = 0.25, P 5…15 kN, At = 84.27.
@@ -91,20 +93,20 @@ func TestGoodmanGerberASME(t *testing.T) {
 	sm := c*(pmax+pmin)/(2*at) + fi/at
 	si := fi / at
 	want := 162 * (1040 - si) / (1040*sa + 162*(sm-si))
-	got := StrengthAmplitude(Goodman, 162, 1040, 830, si, (pmax+pmin)/(pmax-pmin)) / sa
+	got := model.StrengthAmplitude(model.Goodman, 162, 1040, 830, si, (pmax+pmin)/(pmax-pmin)) / sa
 	near(t, "Goodman 8-38", got, want, 1e-12)
 	// Gerber general line checked by substitution into Sa/Se + (Sm/Sut)² = 1.
 	q := (pmax + pmin) / (pmax - pmin)
-	a := StrengthAmplitude(Gerber, 162, 1040, 830, si, q)
+	a := model.StrengthAmplitude(model.Gerber, 162, 1040, 830, si, q)
 	if r := a/162 + math.Pow((si+q*a)/1040, 2); math.Abs(r-1) > 1e-12 {
 		t.Errorf("Gerber point off its line: %g", r)
 	}
-	a = StrengthAmplitude(ASMEElliptic, 162, 1040, 830, si, q)
+	a = model.StrengthAmplitude(model.ASMEElliptic, 162, 1040, 830, si, q)
 	if r := math.Pow(a/162, 2) + math.Pow((si+q*a)/830, 2); math.Abs(r-1) > 1e-12 {
 		t.Errorf("ASME-elliptic point off its line: %g", r)
 	}
 	// Preload already at Sut leaves no amplitude.
-	if v := StrengthAmplitude(Goodman, 162, 1040, 830, 1100, 1); v != 0 {
+	if v := model.StrengthAmplitude(model.Goodman, 162, 1040, 830, 1100, 1); v != 0 {
 		t.Errorf("σi > Sut: got Sa = %g, want 0", v)
 	}
 }
@@ -113,18 +115,18 @@ func TestGoodmanWithLoads(t *testing.T) {
 	t.Parallel()
 	// Shigley Eq. 8-48: nf = 2·Se·(Sut·At − Fi)/(C·P·(Sut + Se)) for 0…P.
 	in := r1()
-	var o Outcome
-	Evaluate(&in, &o)
+	var o model.Outcome
+	model.Evaluate(&in, &o)
 	fi, c, at := o.Bolt.Preload, o.Stiffness.C, in.Thread.StressArea
 	want := 2 * 162 * (1040*at - fi) / (c * 30000 * (1040 + 162))
-	near(t, "nf Eq. 8-48", o.SafetyFactor(Fatigue), want, 1e-12)
+	near(t, "nf Eq. 8-48", o.SafetyFactor(model.Fatigue), want, 1e-12)
 	// Fi = T/(K·d) = 120 N·m/(0.2·12 mm) = 50 kN (Shigley Eq. 8-27).
 	near(t, "Fi", fi, 50000, 1e-12)
 	// Separation factor n0 = Fi/(P(1 − C)), Eq. 8-30; load factor vs proof np, Eq. 8-28.
-	near(t, "n0", o.SafetyFactor(Separation), fi/(30000*(1-c)), 1e-12)
-	near(t, "np", o.SafetyFactor(Proof), 830*at/(c*30000+fi), 1e-12)
+	near(t, "n0", o.SafetyFactor(model.Separation), fi/(30000*(1-c)), 1e-12)
+	near(t, "np", o.SafetyFactor(model.Proof), 830*at/(c*30000+fi), 1e-12)
 	// Preload beneficial up to (1 − C)·Sut·At, Eq. 8-50.
-	near(t, "beneficial", PreloadWindow(&in).BeneficialMax, (1-c)*1040*at, 1e-12)
+	near(t, "beneficial", model.PreloadWindow(&in).BeneficialMax, (1-c)*1040*at, 1e-12)
 }
 
 func TestTorquePreload(t *testing.T) {
@@ -142,18 +144,18 @@ func TestTorquePreload(t *testing.T) {
 	}
 	// Shigley p.438: K ≈ 0.20 for f = fc = 0.15, nearly independent of size (confirmed).
 	for _, name := range []string{"M8", "M12", "M20", "1/2-13 UNC"} {
-		th, _ := LookupThread(name)
-		x := Inputs{Thread: th, BearingDia: 1.5 * th.D, HoleDia: 1.08 * th.D}
+		th, _ := model.LookupThread(name)
+		x := model.Inputs{Thread: th, BearingDia: 1.5 * th.D, HoleDia: 1.08 * th.D}
 		near(t, name+" K(0.15)", x.NutFactorOf(0.15, 0.15), 0.20, 0.08)
 	}
 	// Friction method and nut-factor method agree when K is derived from μ.
-	in.Method = FrictionMethod
+	in.Method = model.FrictionMethod
 	in.ThreadFriction, in.HeadFriction = 0.12, 0.12
-	var a, b Outcome
-	Evaluate(&in, &a)
-	in.Method = NutFactorMethod
+	var a, b model.Outcome
+	model.Evaluate(&in, &a)
+	in.Method = model.NutFactorMethod
 	in.NutFactor = in.NutFactorOf(0.12, 0.12)
-	Evaluate(&in, &b)
+	model.Evaluate(&in, &b)
 	near(t, "FM agree", a.Bolt.AssemblyPreload, b.Bolt.AssemblyPreload, 1e-12)
 	near(t, "MG agree", a.Bolt.ThreadTorque, b.Bolt.ThreadTorque, 1e-12)
 	near(t, "TorqueFor", in.TorqueFor(b.Bolt.AssemblyPreload), in.Torque, 1e-12)
@@ -170,11 +172,11 @@ func TestVDIPermissibleAssemblyPreload(t *testing.T) {
 	}{
 		{"M12", 0.14, 41.9}, {"M16", 0.10, 82.9}, {"M8", 0.08, 19.6}, {"M24", 0.16, 172.8},
 	} {
-		th, _ := LookupThread(test.thread)
-		in := Inputs{Thread: th, Yield: 640, Method: FrictionMethod, ThreadFriction: test.mu,
+		th, _ := model.LookupThread(test.thread)
+		in := model.Inputs{Thread: th, Yield: 640, Method: model.FrictionMethod, ThreadFriction: test.mu,
 			HeadFriction: test.mu, BearingDia: 1.5 * th.D, HoleDia: th.D + 1, NLayers: 1, Bolts: 1}
-		in.Layers[0] = Layer{Thickness: 2 * th.D, Modulus: 207000}
-		got := 0.9 * PreloadWindow(&in).AssemblyMax / 1000
+		in.Layers[0] = model.Layer{Thickness: 2 * th.D, Modulus: 207000}
+		got := 0.9 * model.PreloadWindow(&in).AssemblyMax / 1000
 		near(t, test.thread+" FMzul", got, test.kN, 0.003)
 	}
 }
@@ -184,11 +186,11 @@ func TestEmbeddingLoss(t *testing.T) {
 	// VDI 2230-1: FZ = fZ·kb·km/(kb + km) (from memory).
 	in := r1()
 	in.Embedding = 0.011 // 11 µm
-	var o Outcome
-	Evaluate(&in, &o)
+	var o model.Outcome
+	model.Evaluate(&in, &o)
 	s := o.Stiffness
 	near(t, "Fi after embedding", o.Bolt.Preload, 50000-0.011*s.Kb*s.Km/(s.Kb+s.Km), 1e-12)
 	in.Relaxation = 0.05
-	Evaluate(&in, &o)
+	model.Evaluate(&in, &o)
 	near(t, "Fi after relaxation", o.Bolt.Preload, 50000*0.95-0.011*s.Kb*s.Km/(s.Kb+s.Km), 1e-12)
 }

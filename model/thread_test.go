@@ -1,4 +1,6 @@
-package model
+package model_test
+
+import "boltrisk/model"
 
 import "testing"
 
@@ -32,7 +34,7 @@ func TestMetricStressArea(t *testing.T) {
 		{"M10x1", 64.5, 0.002},    // ISO 898-1 Table 5 (from memory)
 		{"M12x1.5", 88.1, 0.002},  // ISO 898-1 Table 5 (from memory)
 	} {
-		th, err := LookupThread(test.name)
+		th, err := model.LookupThread(test.name)
 		if err != nil {
 			t.Fatalf("%s: %v", test.name, err)
 		}
@@ -44,11 +46,11 @@ func TestMetricDiameters(t *testing.T) {
 	t.Parallel()
 	// ISO 724 basic dimensions of M12 (reference sheet §1.1, confirmed):
 	// d2 = 10.863, d3 = 9.853 mm.
-	th, _ := LookupThread("M12")
+	th, _ := model.LookupThread("M12")
 	near(t, "M12 d2", th.PitchDia, 10.863, 1e-4)
 	near(t, "M12 d3", th.MinorDia, 9.853, 1e-4)
 	// M24: d2 = 22.051, d3 = 20.319 (ISO 724; reference sheet §1.2, confirmed).
-	th, _ = LookupThread("M24")
+	th, _ = model.LookupThread("M24")
 	near(t, "M24 d2", th.PitchDia, 22.051, 1e-4)
 	near(t, "M24 d3", th.MinorDia, 20.319, 1e-4)
 }
@@ -72,7 +74,7 @@ func TestUnifiedAreas(t *testing.T) {
 		{"1/2-20 UNF", 0.1599, 0.1486},
 		{"1 UNF", 0.663, 0.625},
 	} {
-		th, err := LookupThread(test.name)
+		th, err := model.LookupThread(test.name)
 		if err != nil {
 			t.Fatalf("%s: %v", test.name, err)
 		}
@@ -84,7 +86,7 @@ func TestUnifiedAreas(t *testing.T) {
 func TestLookupThreadErrors(t *testing.T) {
 	t.Parallel()
 	for _, name := range []string{"M13", "M12x3", "1/2", "1/2-14", "bolt", "", "M"} {
-		if _, err := LookupThread(name); err == nil {
+		if _, err := model.LookupThread(name); err == nil {
 			t.Errorf("LookupThread(%q): want error", name)
 		}
 	}

@@ -103,7 +103,7 @@ func newUniverse(ps []*Problem) universe {
 	sh, pb := map[string]bool{}, map[string]bool{}
 	for _, p := range ps {
 		for _, v := range p.Vars {
-			if v.PerBolt {
+			if v.PerBolt() {
 				pb[v.Name] = true
 			} else {
 				sh[v.Name] = true

@@ -2,16 +2,31 @@ package montecarlo
 
 import "boltrisk/model"
 
+// Role says what an uncertain input feeds, so that the runner needs no
+// knowledge of the file format: the field registry of the scenario loader
+// sets it.
+type Role uint8
+
+const (
+	PerBolt        Role = 1 << iota // each bolt of the joint draws its own value (assembly scatter)
+	FeedsStiffness                  // enters the bolt or member stiffness, which is then recomputed per sample
+	Load                            // a service load, scaled by load studies
+	ShearSide                       // enters the shear-side (joint-level) modes
+)
+
 // Var is one uncertain input: a distribution bound to one float64 field of
 // model.Inputs.
 type Var struct {
-	Name    string // dotted scenario path, e.g. "tightening.torque"
-	Dist    Dist
-	PerBolt bool // each bolt of the joint draws its own value
+	Name string // dotted scenario path, e.g. "tightening.torque"
+	Dist Dist
+	Role Role
 	// Field returns the address of the bound field inside in. The runner calls
 	// it once per worker, never per sample.
 	Field func(in *model.Inputs) *float64
 }
+
+// PerBolt reports whether each bolt of the joint draws its own value.
+func (v *Var) PerBolt() bool { return v.Role&PerBolt != 0 }
 
 // Correlation is a rank-free Gaussian-copula correlation between two inputs,
 // given by their indices in Problem.Vars.

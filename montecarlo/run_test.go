@@ -10,24 +10,13 @@ import (
 	"gonum.org/v1/gonum/stat/distuv"
 
 	"boltrisk/model"
+	"boltrisk/model/jointtest"
 	"boltrisk/montecarlo"
 	"boltrisk/montecarlo/scenario"
 )
 
-// joint returns a single M12 10.9 bolt in 30 mm of steel (Wileman members),
-// preload given directly.
-func joint() model.Inputs {
-	th, _ := model.LookupThread("M12")
-	in := model.Inputs{
-		Thread: th, Bolts: 1, Proof: 830, Yield: 940, Tensile: 1040, BoltModulus: 207000,
-		ShankInGrip: 10, BearingDia: 18, HoleDia: 13, NLayers: 2, StiffnessMethod: model.Wileman,
-		Method: model.DirectPreload, Preload: 40e3, TorsionFactor: 0.5,
-		AxialMax: 30e3, Criterion: model.Goodman, Endurance: 162,
-	}
-	steel := model.Layer{Thickness: 15, Modulus: 207000, WilemanA: 0.78715, WilemanB: 0.62873}
-	in.Layers[0], in.Layers[1] = steel, steel
-	return in
-}
+// joint returns reference case R1 with the preload given directly (40 kN).
+func joint() model.Inputs { return jointtest.R1Preload() }
 
 func field(f func(in *model.Inputs) *float64) func(in *model.Inputs) *float64 { return f }
 
@@ -72,7 +61,7 @@ func TestSeparationNormalLoad(t *testing.T) {
 	// Separation when P ≥ Fi/(1 − C): p = 1 − Φ((Fi/(1 − C) − μ)/σ)  (closed form).
 	in := joint()
 	p := &montecarlo.Problem{Base: in, Vars: []montecarlo.Var{
-		{Name: "loads.axial_max", Dist: mustDist(montecarlo.NewNormal(40e3, 6e3)), Field: fAxial},
+		{Name: "loads.axial_max", Dist: mustDist(montecarlo.NewNormal(40e3, 6e3)), Role: montecarlo.Load, Field: fAxial},
 	}}
 	s := model.ComputeStiffness(&in)
 	exact := 1 - distuv.UnitNormal.CDF((40e3/(1-s.C)-40e3)/6e3)
@@ -100,7 +89,7 @@ func TestProofUniformPreload(t *testing.T) {
 	in := joint()
 	a, b := 50e3, 70e3
 	p := &montecarlo.Problem{Base: in, Vars: []montecarlo.Var{
-		{Name: "tightening.preload", Dist: mustDist(montecarlo.NewUniform(a, b)), PerBolt: true, Field: fPreload},
+		{Name: "tightening.preload", Dist: mustDist(montecarlo.NewUniform(a, b)), Role: montecarlo.PerBolt, Field: fPreload},
 	}}
 	s := model.ComputeStiffness(&in)
 	exact := (b - (830*in.Thread.StressArea - s.C*30e3)) / (b - a)
@@ -117,7 +106,7 @@ func TestSeveralBoltsBinomial(t *testing.T) {
 	in := joint()
 	in.Bolts = 6
 	d := mustDist(montecarlo.NewNormal(60e3, 4e3))
-	p := &montecarlo.Problem{Base: in, Vars: []montecarlo.Var{{Name: "tightening.preload", Dist: d, PerBolt: true, Field: fPreload}}}
+	p := &montecarlo.Problem{Base: in, Vars: []montecarlo.Var{{Name: "tightening.preload", Dist: d, Role: montecarlo.PerBolt, Field: fPreload}}}
 	s := model.ComputeStiffness(&in)
 	pb := 1 - distuv.UnitNormal.CDF((830*in.Thread.StressArea-s.C*30e3-60e3)/4e3)
 	r := run(t, p, 200_000, 11)
@@ -177,7 +166,7 @@ func TestIntervalCoverage(t *testing.T) {
 	// has probability < 1e-4 under nominal coverage: the stated false-alarm rate.
 	in := joint()
 	p := &montecarlo.Problem{Base: in, Vars: []montecarlo.Var{
-		{Name: "loads.axial_max", Dist: mustDist(montecarlo.NewNormal(40e3, 6e3)), Field: fAxial},
+		{Name: "loads.axial_max", Dist: mustDist(montecarlo.NewNormal(40e3, 6e3)), Role: montecarlo.Load, Field: fAxial},
 	}}
 	s := model.ComputeStiffness(&in)
 	exact := 1 - distuv.UnitNormal.CDF((40e3/(1-s.C)-40e3)/6e3) // ≈ 0.023
@@ -271,7 +260,7 @@ func TestLargeRunBinsSomeChunks(t *testing.T) {
 	in := joint()
 	sd := 3e3
 	p := &montecarlo.Problem{Base: in, Vars: []montecarlo.Var{
-		{Name: "tightening.preload", Dist: mustDist(montecarlo.NewNormal(40e3, sd)), PerBolt: true, Field: fPreload},
+		{Name: "tightening.preload", Dist: mustDist(montecarlo.NewNormal(40e3, sd)), Role: montecarlo.PerBolt, Field: fPreload},
 	}}
 	const n = 2*(1<<21) + 12345 // k = 2; a partial last chunk
 	r := sameForWorkers(t, p, montecarlo.Settings{Samples: n, Seed: 4}, 1, 3)
@@ -323,7 +312,7 @@ func TestTargetStops(t *testing.T) {
 	t.Parallel()
 	in := joint()
 	p := &montecarlo.Problem{Base: in, Vars: []montecarlo.Var{
-		{Name: "loads.axial_max", Dist: mustDist(montecarlo.NewNormal(40e3, 6e3)), Field: fAxial},
+		{Name: "loads.axial_max", Dist: mustDist(montecarlo.NewNormal(40e3, 6e3)), Role: montecarlo.Load, Field: fAxial},
 	}}
 	r, err := montecarlo.Run(context.Background(), p, montecarlo.Settings{Samples: 50_000_000, Seed: 1, Target: 0.05})
 	if err != nil {
@@ -362,7 +351,7 @@ func TestInvalidSamplesCounted(t *testing.T) {
 	in := joint()
 	in.Method, in.Torque, in.NutFactor = model.NutFactorMethod, 100e3, 0.2
 	p := &montecarlo.Problem{Base: in, Vars: []montecarlo.Var{
-		{Name: "tightening.nut_factor", Dist: mustDist(montecarlo.NewNormal(0.2, 0.1)), PerBolt: true, Field: fNutFactor},
+		{Name: "tightening.nut_factor", Dist: mustDist(montecarlo.NewNormal(0.2, 0.1)), Role: montecarlo.PerBolt, Field: fNutFactor},
 	}}
 	r := run(t, p, 100_000, 1)
 	frac := float64(r.Invalid) / 100_000

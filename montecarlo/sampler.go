@@ -3,7 +3,6 @@ package montecarlo
 import (
 	"fmt"
 	"math/rand/v2"
-	"strings"
 
 	"boltrisk/model"
 	"boltrisk/montecarlo/rng"
@@ -133,17 +132,6 @@ type plan struct {
 	needJoint bool
 }
 
-// touchesStiffness reports whether an uncertain input at this path forces
-// the stiffness to be recomputed per sample.
-func touchesStiffness(name string) bool {
-	switch name {
-	case "bolt.modulus", "bolt.shank_in_grip", "bolt.bearing_diameter", "bolt.hole_diameter",
-		"members.stiffness", "members.load_introduction":
-		return true
-	}
-	return strings.HasPrefix(name, "members.layers.")
-}
-
 func newPlan(p *Problem) (*plan, error) {
 	pl := &plan{base: p.Base, nBolts: 1}
 	pos := make([]int, len(p.Vars)) // index within its group
@@ -151,24 +139,24 @@ func newPlan(p *Problem) (*plan, error) {
 		if v.Field == nil {
 			return nil, fmt.Errorf("montecarlo: input %q has no field binding", v.Name)
 		}
-		if v.PerBolt {
+		if v.PerBolt() {
 			pos[i] = len(pl.perBolt)
 			pl.perBolt = append(pl.perBolt, i)
 		} else {
 			pos[i] = len(pl.shared)
 			pl.shared = append(pl.shared, i)
 		}
-		if touchesStiffness(v.Name) {
+		if v.Role&FeedsStiffness != 0 {
 			pl.stiffVaries = true
 		}
 	}
 	for _, c := range p.Corr {
 		a, b := p.Vars[c.I], p.Vars[c.J]
-		if a.PerBolt != b.PerBolt {
+		if a.PerBolt() != b.PerBolt() {
 			return nil, fmt.Errorf("correlation between %s (drawn per bolt) and %s (shared by the joint) is not supported: correlate inputs of the same kind", a.Name, b.Name)
 		}
 		cc := Correlation{I: pos[c.I], J: pos[c.J], Rho: c.Rho}
-		if a.PerBolt {
+		if a.PerBolt() {
 			pl.perBoltCorr = append(pl.perBoltCorr, cc)
 		} else {
 			pl.sharedCorr = append(pl.sharedCorr, cc)
@@ -179,7 +167,7 @@ func newPlan(p *Problem) (*plan, error) {
 	}
 	pl.needJoint = pl.nBolts > 1 || p.Base.ShearLoad > 0
 	for _, v := range p.Vars {
-		if v.Name == "loads.shear" {
+		if v.Role&(Load|ShearSide) == Load|ShearSide { // an uncertain shear load
 			pl.needJoint = true
 		}
 	}

@@ -36,13 +36,6 @@ type Vary struct {
 	Steps int                          // number of values, ≥ 2
 }
 
-// loadFields lists the service-load inputs scaled by VaryLoad.
-var loadFields = map[string]func(*model.Inputs) *float64{
-	"loads.axial_max": func(in *model.Inputs) *float64 { return &in.AxialMax },
-	"loads.axial_min": func(in *model.Inputs) *float64 { return &in.AxialMin },
-	"loads.shear":     func(in *model.Inputs) *float64 { return &in.ShearLoad },
-}
-
 // Values returns the equally spaced step values.
 func (v *Vary) Values() []float64 {
 	out := make([]float64, v.Steps)
@@ -107,15 +100,16 @@ func (v *Vary) Apply(p *Problem, x float64) (*Problem, error) {
 		}
 		*v.Field(&q.Base) = x
 	case VaryLoad:
-		for path, f := range loadFields {
-			*f(&q.Base) *= x
-			if i, ok := findVar(q, path); ok {
-				d, err := q.Vars[i].Dist.Multiplied(x)
-				if err != nil {
-					return nil, fmt.Errorf("load × %g: %w", x, err)
-				}
-				q.Vars[i].Dist = d
+		q.Base.ScaleLoads(x)
+		for i := range q.Vars {
+			if q.Vars[i].Role&Load == 0 {
+				continue
 			}
+			d, err := q.Vars[i].Dist.Multiplied(x)
+			if err != nil {
+				return nil, fmt.Errorf("load × %g: %w", x, err)
+			}
+			q.Vars[i].Dist = d
 		}
 	case VarySpread:
 		i, _ := findVar(q, v.Path)

@@ -25,8 +25,8 @@ func lognormalCase() (*montecarlo.Problem, func(torque float64) float64) {
 	k := mustDist(montecarlo.NewLogNormalMoments(0.2, 0.2*0.15))
 	pl := mustDist(montecarlo.NewLogNormalMoments(28e3, 28e3*0.2))
 	p := &montecarlo.Problem{Base: in, Vars: []montecarlo.Var{
-		{Name: "tightening.nut_factor", Dist: k, PerBolt: true, Field: fNutFactor},
-		{Name: "loads.axial_max", Dist: pl, Field: fAxial},
+		{Name: "tightening.nut_factor", Dist: k, Role: montecarlo.PerBolt, Field: fNutFactor},
+		{Name: "loads.axial_max", Dist: pl, Role: montecarlo.Load, Field: fAxial},
 	}}
 	c := model.ComputeStiffness(&in).C
 	exact := func(t float64) float64 {
@@ -107,7 +107,7 @@ func TestSpreadLimit(t *testing.T) {
 	// (closed form); the bisection finds the spread factor within its resolution.
 	in := joint()
 	d := mustDist(montecarlo.NewNormal(60e3, 1e3))
-	p := &montecarlo.Problem{Base: in, Vars: []montecarlo.Var{{Name: "tightening.preload", Dist: d, PerBolt: true, Field: fPreload}}}
+	p := &montecarlo.Problem{Base: in, Vars: []montecarlo.Var{{Name: "tightening.preload", Dist: d, Role: montecarlo.PerBolt, Field: fPreload}}}
 	c := model.ComputeStiffness(&in).C
 	fStar := 830*in.Thread.StressArea - c*30e3
 	const target = 1e-2

@@ -19,8 +19,8 @@ func TestBoltViewMatchesJoint(t *testing.T) {
 	k, _ := NewLogNormalMoments(0.2, 0.03)
 	p, _ := NewNormal(30e3, 6e3)
 	prob := &Problem{Base: in, Vars: []Var{
-		{Name: "tightening.nut_factor", Dist: k, PerBolt: true, Field: func(in *model.Inputs) *float64 { return &in.NutFactor }},
-		{Name: "loads.axial_max", Dist: p, Field: func(in *model.Inputs) *float64 { return &in.AxialMax }},
+		{Name: "tightening.nut_factor", Dist: k, Role: PerBolt, Field: func(in *model.Inputs) *float64 { return &in.NutFactor }},
+		{Name: "loads.axial_max", Dist: p, Role: Load, Field: func(in *model.Inputs) *float64 { return &in.AxialMax }},
 	}}
 	var tallies [2]*tally
 	for i, need := range []bool{false, true} {

@@ -9,6 +9,7 @@ import (
 
 	"boltrisk/model"
 	"boltrisk/model/units"
+	"boltrisk/montecarlo"
 	"boltrisk/montecarlo/scenario"
 )
 
@@ -75,14 +76,13 @@ func writeCatalog(w io.Writer, topic string) error {
 			fmt.Fprintf(tw, "%s\t%s\t±%.0f %%\t%s\t%s\t\n", t.Name, t.Controls, 100*t.Tolerance, t.Description, t.Source)
 		}
 	case "inputs":
-		fmt.Fprintln(tw, "input path\tunit (SI)\tper bolt\t")
-		for _, p := range scenario.FieldPaths() {
-			dim := scenario.FieldDim(p)
-			u, _ := units.SI.Unit(dim)
+		fmt.Fprintln(tw, "input path\tunit (SI)\tper bolt\tmeaning\t")
+		for _, f := range scenario.Fields() {
+			u, _ := units.SI.Unit(f.Dim)
 			if u == "" {
-				u = dim.String()
+				u = f.Dim.String()
 			}
-			fmt.Fprintf(tw, "%s\t%s\t%v\t\n", p, u, scenario.FieldPerBolt(p))
+			fmt.Fprintf(tw, "%s\t%s\t%v\t%s\t\n", f.Path, u, f.Role&montecarlo.PerBolt != 0, f.Help)
 		}
 	default:
 		return usagef("unknown catalogue %q (allowed: %v)", topic, catalogTopics)

@@ -86,7 +86,7 @@ func Nominal(s *scenario.Scenario, version string) NominalDoc {
 		if !o.Active[m] {
 			continue
 		}
-		u, _ := units.SI.Unit(ModeDim(m))
+		u, _ := units.SI.Unit(m.Dim())
 		doc.Modes[m.Key()] = ModeDoc{Title: m.Title(), Demand: o.Demand[m], Capacity: o.Capacity[m], Unit: u,
 			SafetyFactor: FiniteSF(o.SafetyFactor(m)), Margin: o.Margin(m), Fails: o.Fails(m)}
 		doc.ModeOrder = append(doc.ModeOrder, m.Key())
@@ -181,7 +181,7 @@ func modeRows(doc NominalDoc, sys units.System) [][]string {
 	for _, k := range doc.ModeOrder {
 		md := doc.Modes[k]
 		m, _ := model.ParseMode(k)
-		dim := ModeDim(m)
+		dim := m.Dim()
 		res := "ok"
 		if md.Fails {
 			res = "FAILS"

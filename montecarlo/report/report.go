@@ -22,16 +22,6 @@ const Caution = "CAUTION: these results are estimates that depend on the input s
 // SchemaVersion is the version of every JSON document written here.
 const SchemaVersion = 1
 
-// ModeDim returns the dimension in which a mode's demand and capacity are
-// expressed: stress for the yield and fatigue modes, force for the others.
-func ModeDim(m model.Mode) units.Dim {
-	switch m {
-	case model.AssemblyYield, model.ServiceYield, model.Fatigue:
-		return units.Stress
-	}
-	return units.Force
-}
-
 // ScenarioInfo identifies the scenario in documents.
 type ScenarioInfo struct {
 	Name    string `json:"name"`

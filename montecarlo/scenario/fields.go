@@ -7,58 +7,100 @@ import (
 
 	"boltrisk/model"
 	"boltrisk/model/units"
+	"boltrisk/montecarlo"
 )
 
 // field is one scalar input of the model that a scenario may set to a value
-// or a distribution.
+// or a distribution: the one registry that the loader, the runner (through
+// montecarlo.Var's role), the reports and 'catalog inputs' read.
 type field struct {
-	path    string
-	dim     units.Dim
-	perBolt bool // assembly scatter: each bolt draws its own value
-	ptr     func(*model.Inputs) *float64
-	help    string
+	path  string
+	dim   units.Dim
+	role  montecarlo.Role
+	ptr   func(*model.Inputs) *float64
+	label string // short name in reports
+	help  string // one line for 'catalog inputs'
+	// show reports whether the reports list the input for this joint; nil:
+	// when it matters to the joint's modes at all (see shown).
+	show func(in *model.Inputs) bool
 }
 
-var fields = []field{
-	{"bolt.proof_strength", units.Stress, true, func(in *model.Inputs) *float64 { return &in.Proof }, "proof strength Sp (default: property class)"},
-	{"bolt.yield_strength", units.Stress, true, func(in *model.Inputs) *float64 { return &in.Yield }, "yield strength Sy (default: property class)"},
-	{"bolt.tensile_strength", units.Stress, true, func(in *model.Inputs) *float64 { return &in.Tensile }, "tensile strength Sut (default: property class)"},
-	{"bolt.modulus", units.Stress, false, func(in *model.Inputs) *float64 { return &in.BoltModulus }, "Young's modulus of the bolt (default 207 GPa steel, 190 GPa stainless)"},
-	{"bolt.shank_in_grip", units.Length, false, func(in *model.Inputs) *float64 { return &in.ShankInGrip }, "unthreaded shank length inside the grip (default from length and thread_length)"},
-	{"bolt.bearing_diameter", units.Length, false, func(in *model.Inputs) *float64 { return &in.BearingDia }, "outer diameter of the head/nut bearing face (default 1.5·d)"},
-	{"bolt.hole_diameter", units.Length, false, func(in *model.Inputs) *float64 { return &in.HoleDia }, "clearance hole diameter (default normal clearance)"},
-	{"members.stiffness", units.Stiffness, false, func(in *model.Inputs) *float64 { return &in.MemberStiffness }, "member stiffness km given directly (default computed)"},
-	{"members.load_introduction", units.None, false, func(in *model.Inputs) *float64 { return &in.LoadIntroduction }, "VDI 2230 load-introduction factor n, 0 < n ≤ 1 (default 1)"},
-	{"tightening.torque", units.Torque, true, func(in *model.Inputs) *float64 { return &in.Torque }, "tightening torque"},
-	{"tightening.nut_factor", units.None, true, func(in *model.Inputs) *float64 { return &in.NutFactor }, "nut factor K in T = K·F·d"},
-	{"tightening.thread_friction", units.None, true, func(in *model.Inputs) *float64 { return &in.ThreadFriction }, "thread friction μG"},
-	{"tightening.head_friction", units.None, true, func(in *model.Inputs) *float64 { return &in.HeadFriction }, "under-head friction μK"},
-	{"tightening.preload", units.Force, true, func(in *model.Inputs) *float64 { return &in.Preload }, "assembly preload (method: preload)"},
-	{"tightening.embedding", units.Length, true, func(in *model.Inputs) *float64 { return &in.Embedding }, "total embedding (settlement) fZ (default 0)"},
-	{"tightening.relaxation", units.Fraction, true, func(in *model.Inputs) *float64 { return &in.Relaxation }, "further preload loss as a fraction (default 0)"},
-	{"tightening.torsion_factor", units.None, false, func(in *model.Inputs) *float64 { return &in.TorsionFactor }, "share of thread torsion left in service kτ (default 0.5, VDI 2230)"},
-	{"loads.axial_max", units.Force, false, func(in *model.Inputs) *float64 { return &in.AxialMax }, "largest external axial load per bolt"},
-	{"loads.axial_min", units.Force, false, func(in *model.Inputs) *float64 { return &in.AxialMin }, "smallest external axial load per bolt (default 0: repeated loading)"},
-	{"loads.shear", units.Force, false, func(in *model.Inputs) *float64 { return &in.ShearLoad }, "shear force on the whole joint (default 0)"},
-	{"plate.thickness", units.Length, false, func(in *model.Inputs) *float64 { return &in.PlateThickness }, "thickness in bearing (default thinnest layer)"},
-	{"plate.width", units.Length, false, func(in *model.Inputs) *float64 { return &in.PlateWidth }, "plate width across the load (net-section check)"},
-	{"plate.edge_distance", units.Length, false, func(in *model.Inputs) *float64 { return &in.EdgeDistance }, "hole centre to edge in the load direction e1"},
-	{"plate.side_distance", units.Length, false, func(in *model.Inputs) *float64 { return &in.SideDistance }, "hole centre to edge across the load e2 (default e1)"},
-	{"plate.yield_strength", units.Stress, false, func(in *model.Inputs) *float64 { return &in.PlateYield }, "plate yield strength (default from plate.material)"},
-	{"plate.tensile_strength", units.Stress, false, func(in *model.Inputs) *float64 { return &in.PlateTensile }, "plate tensile strength (default from plate.material)"},
-	{"plate.slip_factor", units.None, false, func(in *model.Inputs) *float64 { return &in.SlipFactor }, "slip factor μ of the faying surfaces (0 or absent: no slip check)"},
-	{"fatigue.endurance", units.Stress, true, func(in *model.Inputs) *float64 { return &in.Endurance }, "endurance strength Se (default from the class or endurance_source)"},
+// Roles of the registry's inputs.
+const (
+	perBolt   = montecarlo.PerBolt
+	stiffness = montecarlo.FeedsStiffness
+	load      = montecarlo.Load
+	shearSide = montecarlo.ShearSide
+)
+
+// Display rules.
+func always(*model.Inputs) bool        { return true }
+func hasShear(in *model.Inputs) bool   { return in.ShearLoad > 0 }
+func alternates(in *model.Inputs) bool { return in.AxialMax > in.AxialMin }
+func byMethod(m model.TighteningMethod) func(*model.Inputs) bool {
+	return func(in *model.Inputs) bool { return in.Method == m }
+}
+func byTorque(in *model.Inputs) bool { return in.Method != model.DirectPreload }
+func nonZero(get func(*model.Inputs) *float64) func(*model.Inputs) bool {
+	return func(in *model.Inputs) bool { return *get(in) != 0 }
 }
 
-func init() {
+var fields = append(baseFields(), layerFields()...)
+
+func baseFields() []field {
+	ptr := func(f func(in *model.Inputs) *float64) func(*model.Inputs) *float64 { return f }
+	relax := ptr(func(in *model.Inputs) *float64 { return &in.Relaxation })
+	embed := ptr(func(in *model.Inputs) *float64 { return &in.Embedding })
+	km := ptr(func(in *model.Inputs) *float64 { return &in.MemberStiffness })
+	slip := ptr(func(in *model.Inputs) *float64 { return &in.SlipFactor })
+	return []field{
+		{"bolt.proof_strength", units.Stress, perBolt, ptr(func(in *model.Inputs) *float64 { return &in.Proof }), "proof strength", "proof strength Sp (default: property class)", always},
+		{"bolt.yield_strength", units.Stress, perBolt, ptr(func(in *model.Inputs) *float64 { return &in.Yield }), "yield strength", "yield strength Sy (default: property class)", always},
+		{"bolt.tensile_strength", units.Stress, perBolt, ptr(func(in *model.Inputs) *float64 { return &in.Tensile }), "tensile strength", "tensile strength Sut (default: property class)", always},
+		{"bolt.modulus", units.Stress, stiffness, ptr(func(in *model.Inputs) *float64 { return &in.BoltModulus }), "bolt modulus", "Young's modulus of the bolt (default 207 GPa steel, 190 GPa stainless)", always},
+		{"bolt.shank_in_grip", units.Length, stiffness, ptr(func(in *model.Inputs) *float64 { return &in.ShankInGrip }), "shank in grip", "unthreaded shank length inside the grip (default from length and thread_length)", always},
+		{"bolt.bearing_diameter", units.Length, stiffness, ptr(func(in *model.Inputs) *float64 { return &in.BearingDia }), "bearing diameter", "outer diameter of the head/nut bearing face (default 1.5·d)", always},
+		{"bolt.hole_diameter", units.Length, stiffness | shearSide, ptr(func(in *model.Inputs) *float64 { return &in.HoleDia }), "hole diameter", "clearance hole diameter (default normal clearance)", always},
+		{"members.stiffness", units.Stiffness, stiffness, km, "member stiffness", "member stiffness km given directly (default computed)", nonZero(km)},
+		{"members.load_introduction", units.None, stiffness, ptr(func(in *model.Inputs) *float64 { return &in.LoadIntroduction }), "load introduction n", "VDI 2230 load-introduction factor n, 0 < n ≤ 1 (default 1)",
+			func(in *model.Inputs) bool { return in.LoadIntroduction > 0 && in.LoadIntroduction != 1 }},
+		{"tightening.torque", units.Torque, perBolt, ptr(func(in *model.Inputs) *float64 { return &in.Torque }), "torque", "tightening torque", byTorque},
+		{"tightening.nut_factor", units.None, perBolt, ptr(func(in *model.Inputs) *float64 { return &in.NutFactor }), "nut factor", "nut factor K in T = K·F·d", byMethod(model.NutFactorMethod)},
+		{"tightening.thread_friction", units.None, perBolt, ptr(func(in *model.Inputs) *float64 { return &in.ThreadFriction }), "thread friction", "thread friction μG", byMethod(model.FrictionMethod)},
+		{"tightening.head_friction", units.None, perBolt, ptr(func(in *model.Inputs) *float64 { return &in.HeadFriction }), "head friction", "under-head friction μK", byMethod(model.FrictionMethod)},
+		{"tightening.preload", units.Force, perBolt, ptr(func(in *model.Inputs) *float64 { return &in.Preload }), "preload", "assembly preload (method: preload)", byMethod(model.DirectPreload)},
+		{"tightening.embedding", units.Length, perBolt, embed, "embedding", "total embedding (settlement) fZ (default 0)", nonZero(embed)},
+		{"tightening.relaxation", units.Fraction, perBolt, relax, "relaxation", "further preload loss as a fraction (default 0)", nonZero(relax)},
+		{"tightening.torsion_factor", units.None, 0, ptr(func(in *model.Inputs) *float64 { return &in.TorsionFactor }), "torsion factor kτ", "share of thread torsion left in service kτ (default 0.5, VDI 2230)", byTorque},
+		{"loads.axial_max", units.Force, load, ptr(func(in *model.Inputs) *float64 { return &in.AxialMax }), "largest axial load per bolt", "largest external axial load per bolt", always},
+		{"loads.axial_min", units.Force, load, ptr(func(in *model.Inputs) *float64 { return &in.AxialMin }), "least axial load per bolt", "smallest external axial load per bolt (default 0: repeated loading)", always},
+		{"loads.shear", units.Force, load | shearSide, ptr(func(in *model.Inputs) *float64 { return &in.ShearLoad }), "shear load on the joint", "shear force on the whole joint (default 0)", hasShear},
+		{"plate.thickness", units.Length, shearSide, ptr(func(in *model.Inputs) *float64 { return &in.PlateThickness }), "plate thickness", "thickness in bearing (default thinnest layer)", hasShear},
+		{"plate.width", units.Length, shearSide, ptr(func(in *model.Inputs) *float64 { return &in.PlateWidth }), "plate width", "plate width across the load (net-section check)", hasShear},
+		{"plate.edge_distance", units.Length, shearSide, ptr(func(in *model.Inputs) *float64 { return &in.EdgeDistance }), "edge distance e1", "hole centre to edge in the load direction e1", hasShear},
+		{"plate.side_distance", units.Length, shearSide, ptr(func(in *model.Inputs) *float64 { return &in.SideDistance }), "side distance e2", "hole centre to edge across the load e2 (default e1)", hasShear},
+		{"plate.yield_strength", units.Stress, shearSide, ptr(func(in *model.Inputs) *float64 { return &in.PlateYield }), "plate yield strength", "plate yield strength (default from plate.material)", hasShear},
+		{"plate.tensile_strength", units.Stress, shearSide, ptr(func(in *model.Inputs) *float64 { return &in.PlateTensile }), "plate tensile strength", "plate tensile strength (default from plate.material)", hasShear},
+		{"plate.slip_factor", units.None, shearSide, slip, "slip factor", "slip factor μ of the faying surfaces (0 or absent: no slip check)",
+			func(in *model.Inputs) bool { return in.ShearLoad > 0 && in.SlipFactor > 0 }},
+		{"fatigue.endurance", units.Stress, perBolt, ptr(func(in *model.Inputs) *float64 { return &in.Endurance }), "endurance strength", "endurance strength Se (default from the class or endurance_source)", alternates},
+	}
+}
+
+// layerFields are the thickness and modulus of every possible layer.
+func layerFields() []field {
+	var out []field
 	for i := range model.MaxLayers {
-		i := i
 		p := "members.layers." + strconv.Itoa(i+1) + "."
-		fields = append(fields,
-			field{p + "thickness", units.Length, false, func(in *model.Inputs) *float64 { return &in.Layers[i].Thickness }, "layer thickness"},
-			field{p + "modulus", units.Stress, false, func(in *model.Inputs) *float64 { return &in.Layers[i].Modulus }, "layer Young's modulus (default from material)"},
+		inLayer := func(in *model.Inputs) bool { return i < in.NLayers }
+		out = append(out,
+			field{p + "thickness", units.Length, stiffness, func(in *model.Inputs) *float64 { return &in.Layers[i].Thickness },
+				fmt.Sprintf("layer %d thickness", i+1), "layer thickness", inLayer},
+			field{p + "modulus", units.Stress, stiffness, func(in *model.Inputs) *float64 { return &in.Layers[i].Modulus },
+				fmt.Sprintf("layer %d modulus", i+1), "layer Young's modulus (default from material)", inLayer},
 		)
 	}
+	return out
 }
 
 func lookupField(path string) (field, bool) {
@@ -78,7 +120,7 @@ func ResolvePath(name string) (string, error) {
 	}
 	var hits []string
 	for _, f := range fields {
-		if len(f.path) > len(name) && f.path[len(f.path)-len(name)-1:] == "."+name {
+		if strings.HasSuffix(f.path, "."+name) {
 			hits = append(hits, f.path)
 		}
 	}
@@ -114,6 +156,24 @@ func FieldPaths() []string {
 	return out
 }
 
+// FieldInfo describes one input of the registry.
+type FieldInfo struct {
+	Path  string
+	Dim   units.Dim
+	Role  montecarlo.Role
+	Label string
+	Help  string
+}
+
+// Fields describes every input of the registry, in report order.
+func Fields() []FieldInfo {
+	out := make([]FieldInfo, len(fields))
+	for i, f := range fields {
+		out[i] = FieldInfo{Path: f.path, Dim: f.dim, Role: f.role, Label: f.label, Help: f.help}
+	}
+	return out
+}
+
 // FieldDim returns the dimension of an input path.
 func FieldDim(path string) units.Dim {
 	f, _ := lookupField(path)
@@ -130,10 +190,27 @@ func FieldPtr(in *model.Inputs, path string) *float64 {
 	return f.ptr(in)
 }
 
-// FieldPerBolt reports whether each bolt draws its own value of the input.
-func FieldPerBolt(path string) bool {
-	f, _ := lookupField(path)
-	return f.perBolt
+// FieldPtrFunc returns the binding of an input path to its field, or nil.
+func FieldPtrFunc(path string) func(*model.Inputs) *float64 {
+	f, ok := lookupField(path)
+	if !ok {
+		return nil
+	}
+	return f.ptr
+}
+
+// Shown lists the inputs the reports show for this scenario, in registry
+// order: every uncertain input, and each fixed one whose display rule holds.
+func (s *Scenario) Shown() []FieldInfo {
+	var out []FieldInfo
+	in := s.Inputs()
+	for _, f := range fields {
+		_, unc := s.Uncertain(f.path)
+		if unc || f.show(in) {
+			out = append(out, FieldInfo{Path: f.path, Dim: f.dim, Role: f.role, Label: f.label, Help: f.help})
+		}
+	}
+	return out
 }
 
 // SameJoint reports why two scenarios are not variants of one joint under
@@ -153,32 +230,29 @@ func SameJoint(a, b *Scenario) error {
 	if ia.Bolts != ib.Bolts {
 		return fmt.Errorf("%q and %q are not the same joint: bolt.count differs (%d vs %d)", name(a), name(b), ia.Bolts, ib.Bolts)
 	}
-	for _, path := range []string{"loads.axial_max", "loads.axial_min", "loads.shear"} {
-		va, ua := a.Uncertain(path)
-		vb, ub := b.Uncertain(path)
-		fa, fb := *FieldPtr(ia, path), *FieldPtr(ib, path)
+	for _, f := range fields {
+		if f.role&load == 0 {
+			continue
+		}
+		va, ua := a.Uncertain(f.path)
+		vb, ub := b.Uncertain(f.path)
+		fa, fb := *f.ptr(ia), *f.ptr(ib)
 		same := ua == ub && (ua && va.Dist == vb.Dist || !ua && fa == fb)
 		if !same {
 			return fmt.Errorf("%q and %q are not the same joint under the same duty: %s differs (%s vs %s); a comparison holds the loads fixed — run them separately with 'simulate'",
-				name(a), name(b), path, describe(a, path), describe(b, path))
+				name(a), name(b), f.path, a.Describe(f.path, units.SI), b.Describe(f.path, units.SI))
 		}
 	}
 	return nil
 }
 
-func describe(s *Scenario, path string) string {
-	f := func(v float64) string { return units.SI.Format(v, FieldDim(path)) }
+// Describe writes the value of an input in the display units: its
+// distribution if uncertain, else its value.
+func (s *Scenario) Describe(path string, sys units.System) string {
+	dim := FieldDim(path)
+	f := func(v float64) string { return sys.Format(v, dim) }
 	if v, ok := s.Uncertain(path); ok {
 		return v.Dist.Describe(f)
 	}
 	return f(*FieldPtr(s.Inputs(), path))
-}
-
-// FieldPtrFunc returns the binding of an input path to its field, or nil.
-func FieldPtrFunc(path string) func(*model.Inputs) *float64 {
-	f, ok := lookupField(path)
-	if !ok {
-		return nil
-	}
-	return f.ptr
 }

@@ -1,0 +1,114 @@
+// Package scenario reads scenario files: YAML documents that describe one
+// joint, which of its inputs are uncertain, and the study settings. Every
+// dimensional quantity carries its unit; every problem is reported with file,
+// line, field, value and what is allowed.
+package scenario
+
+import (
+	"bytes"
+	"crypto/sha256"
+	"encoding/hex"
+	"fmt"
+	"os"
+	"strings"
+	"unicode/utf8"
+
+	"go.yaml.in/yaml/v3"
+
+	"boltrisk/model"
+	"boltrisk/model/units"
+	"boltrisk/montecarlo"
+)
+
+// Study holds the run settings a scenario may carry; command-line flags
+// override them. Zero values mean "not set".
+type Study struct {
+	Samples    int64
+	Seed       uint64
+	SeedSet    bool
+	Confidence float64
+	Target     float64
+}
+
+// Scenario is a loaded, validated joint with its uncertain inputs.
+type Scenario struct {
+	Name        string
+	Description string
+	File        string // path it was read from ("" for built-in examples)
+	SHA256      string // of the file's bytes
+	Units       units.System
+
+	Problem  montecarlo.Problem // nominal inputs (means of distributions) and uncertain ones
+	Study    Study
+	Warnings []model.Warning
+
+	// Sources says where each input's value came from when the file did
+	// not give it: a property class, a preset, a default (path → text).
+	Sources map[string]string
+
+	ClassName     string // property class used, "" if strengths were given
+	ConditionName string // assembly-condition preset, "" if none
+	ToolName      string // tightening-tool preset, "" if none
+	EnduranceNote string // where the endurance strength came from
+
+	Variants []*Scenario // named variants (compare); each is a complete scenario
+	Variant  string      // this scenario's variant name, "" for the base
+}
+
+// Inputs returns the nominal model inputs.
+func (s *Scenario) Inputs() *model.Inputs { return &s.Problem.Base }
+
+// Uncertain returns the uncertain input bound to path, if any.
+func (s *Scenario) Uncertain(path string) (*montecarlo.Var, bool) {
+	for i := range s.Problem.Vars {
+		if s.Problem.Vars[i].Name == path {
+			return &s.Problem.Vars[i], true
+		}
+	}
+	return nil, false
+}
+
+// Load reads and validates a scenario file.
+func Load(path string) (*Scenario, error) {
+	data, err := os.ReadFile(path)
+	if err != nil {
+		return nil, fmt.Errorf("cannot read scenario: %w", err)
+	}
+	return Parse(path, data)
+}
+
+// Parse validates a scenario held in memory; name is used in messages.
+func Parse(name string, data []byte) (*Scenario, error) {
+	p := &parser{file: name}
+	if len(bytes.TrimSpace(data)) == 0 {
+		return nil, p.errf(0, "", "", "the file is empty; a scenario needs at least bolt, members and tightening")
+	}
+	if bytes.IndexByte(data, 0) >= 0 || !utf8.Valid(data) {
+		return nil, p.errf(0, "", "", "the file is not text (binary data or invalid UTF-8); a scenario is a YAML document")
+	}
+	var doc yaml.Node
+	if err := yaml.Unmarshal(data, &doc); err != nil {
+		return nil, p.errf(0, "", "", "not valid YAML: %s", strings.TrimPrefix(err.Error(), "yaml: "))
+	}
+	if len(doc.Content) == 0 || doc.Content[0].Kind != yaml.MappingNode {
+		line := 0
+		if len(doc.Content) > 0 {
+			line = doc.Content[0].Line
+		}
+		return nil, p.errf(line, "", "", "a scenario is a YAML mapping of sections (bolt:, members:, tightening:, …)")
+	}
+	raw, err := p.flatten(doc.Content[0])
+	if err != nil {
+		return nil, err
+	}
+	s, err := p.build(raw)
+	if err != nil {
+		return nil, err
+	}
+	sum := sha256.Sum256(data)
+	s.SHA256 = hex.EncodeToString(sum[:])
+	for _, v := range s.Variants {
+		v.SHA256 = s.SHA256
+	}
+	return s, nil
+}
