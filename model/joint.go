@@ -390,9 +390,9 @@ func quadRoot(a, b, c float64) float64 {
 	return (-b + r) / (2 * a)
 }
 
-// EvaluateJoint combines per-bolt results with the shear-side modes of the
-// joint. bolts holds either one result per bolt, or a single result standing
-// for in.Bolts identical bolts. It does not allocate.
+// EvaluateJoint combines per-bolt results with the joint-level modes. bolts
+// holds either one result per bolt, or a single result standing for
+// in.Bolts identical bolts. It does not allocate.
 //
 // A bolt mode fails for the joint when any bolt fails it; the joint's demand
 // and capacity are those of the bolt with the smallest safety factor. Slip
@@ -404,18 +404,13 @@ func quadRoot(a, b, c float64) float64 {
 // the Monte Carlo driver reads the bolts directly.
 func EvaluateJoint(in *Inputs, s *Stiffness, bolts []BoltResult, out *Outcome) {
 	out.Invalid = false
-	clamp := 0.0
 	for i := range bolts {
-		if c := bolts[i].Clamp; c > 0 {
-			clamp += c
-		}
 		out.Invalid = out.Invalid || bolts[i].Invalid
 	}
-	if len(bolts) != in.Bolts {
-		clamp *= float64(in.Bolts) / float64(len(bolts))
-	}
-	out.ClampSum = clamp
-	for m := AssemblyYield; m <= Fatigue; m++ {
+	for m := range NumModes {
+		if !BoltModes.Has(m) {
+			continue
+		}
 		w := 0
 		active := bolts[0].Active[m]
 		for i := 1; i < len(bolts); i++ {
@@ -429,25 +424,48 @@ func EvaluateJoint(in *Inputs, s *Stiffness, bolts []BoltResult, out *Outcome) {
 		out.Capacity[m] = bolts[w].Capacity[m]
 		out.Active[m] = active
 	}
-	shearModes(in, clamp, out)
+	JointModes(in, ClampSum(in, bolts), out)
 }
 
-// shearModes fills the shear-side modes for the chosen resistance rule.
-func shearModes(in *Inputs, clamp float64, out *Outcome) {
+// ClampSum returns the summed residual clamp force of the joint's bolts
+// (each bolt's clamp force counted when positive); a single result stands
+// for in.Bolts identical bolts.
+func ClampSum(in *Inputs, bolts []BoltResult) float64 {
+	clamp := 0.0
+	for i := range bolts {
+		if c := bolts[i].Clamp; c > 0 {
+			clamp += c
+		}
+	}
+	if len(bolts) != in.Bolts {
+		clamp *= float64(in.Bolts) / float64(len(bolts))
+	}
+	return clamp
+}
+
+// JointModes fills the modes decided once for the whole joint (the shear
+// side, for the chosen resistance rule) from the inputs and the summed
+// clamp force; it leaves the bolt modes of out alone. It does not allocate.
+func JointModes(in *Inputs, clamp float64, out *Outcome) {
+	out.ClampSum = clamp
 	v := in.ShearLoad
 	if !(v > 0) {
 		if out.shear {
-			for m := BoltShear; m <= Slip; m++ {
-				out.Active[m] = false
-				out.Demand[m], out.Capacity[m] = 0, 0
+			for m := range NumModes {
+				if !BoltModes.Has(m) {
+					out.Active[m] = false
+					out.Demand[m], out.Capacity[m] = 0, 0
+				}
 			}
 			out.shear = false
 		}
 		return
 	}
 	out.shear = true
-	for m := BoltShear; m <= Slip; m++ {
-		out.Active[m] = false
+	for m := range NumModes {
+		if !BoltModes.Has(m) {
+			out.Active[m] = false
+		}
 	}
 	n := float64(in.Bolts)
 	planes := in.ShearPlanes
