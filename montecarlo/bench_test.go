@@ -13,7 +13,7 @@ import (
 // modes of the reference implementations tallied and reports samples/s.
 // Compare with: go run ../shared/bench/goloop 1e7 (same machine, same run).
 func BenchmarkR1(b *testing.B) {
-	s, err := scenario.Example("r1")
+	s, err := scenario.Example("bench-m12")
 	if err != nil {
 		b.Fatal(err)
 	}

@@ -26,23 +26,23 @@ func r1Problem(tb testing.TB) *Problem {
 	}}
 }
 
-// BenchmarkChunkR1 times one worker on one chunk of R1 with the three R1
-// modes, binning one chunk in four as a 10⁷-sample run does: the per-sample
-// cost of the runner without scheduling. Compare variants with -count 10 and benchstat.
+// BenchmarkChunkR1 times one worker on chunks of R1 with the three R1
+// modes, binning one chunk in binStride(10⁷) as a 10⁷-sample run does: the
+// per-sample cost of the kernel and the crude tally without scheduling.
+// Compare variants with -count 10 and benchstat.
 func BenchmarkChunkR1(b *testing.B) {
-	p := r1Problem(b)
-	pl, err := newPlan(p)
+	benchChunks(b, r1Problem(b), []model.Mode{model.Proof, model.Separation, model.Fatigue})
+}
+
+// BenchmarkChunkR1All is BenchmarkChunkR1 with all five active modes.
+func BenchmarkChunkR1All(b *testing.B) { benchChunks(b, r1Problem(b), nil) }
+
+func benchChunks(b *testing.B, p *Problem, modes []model.Mode) {
+	k, err := NewKernel(p, modes)
 	if err != nil {
 		b.Fatal(err)
 	}
-	r, err := pilotRanges(p, pl, 1)
-	if err != nil {
-		b.Fatal(err)
-	}
-	w, err := newWorker(p, pl, []model.Mode{model.Proof, model.Separation, model.Fatigue}, r, binStride(1e7), false)
-	if err != nil {
-		b.Fatal(err)
-	}
+	w := newCrudeWorker(k, pilot(k, 1), binStride(1e7))
 	b.ReportAllocs()
 	c := int64(0)
 	for b.Loop() {

@@ -20,6 +20,12 @@ type Var struct {
 	Name string // dotted scenario path, e.g. "tightening.torque"
 	Dist Dist
 	Role Role
+	// Shared is, for an input each bolt draws, the share of its scatter
+	// common to all bolts of the joint (a wrench's bias, a lubricant batch):
+	// the correlation between any two bolts' values in the family's
+	// standard-normal space, so each bolt keeps its marginal distribution.
+	// 0: every bolt draws independently.
+	Shared float64
 	// Field returns the address of the bound field inside in. The runner calls
 	// it once per worker, never per sample.
 	Field func(in *model.Inputs) *float64

@@ -10,34 +10,21 @@ import (
 	"gonum.org/v1/gonum/stat/distuv"
 
 	"boltrisk/model"
-	"boltrisk/model/jointtest"
 	"boltrisk/montecarlo"
+	"boltrisk/montecarlo/interval"
+	"boltrisk/montecarlo/problemtest"
 	"boltrisk/montecarlo/scenario"
 )
 
-// joint returns reference case R1 with the preload given directly (40 kN).
-func joint() model.Inputs { return jointtest.R1Preload() }
-
-func field(f func(in *model.Inputs) *float64) func(in *model.Inputs) *float64 { return f }
-
 var (
-	fPreload   = field(func(in *model.Inputs) *float64 { return &in.Preload })
-	fAxial     = field(func(in *model.Inputs) *float64 { return &in.AxialMax })
-	fTorque    = field(func(in *model.Inputs) *float64 { return &in.Torque })
-	fNutFactor = field(func(in *model.Inputs) *float64 { return &in.NutFactor })
+	joint      = problemtest.Joint
+	fPreload   = problemtest.Preload
+	fAxial     = problemtest.Axial
+	fNutFactor = problemtest.NutFactor
+	mustDist   = problemtest.Must
 )
 
-func mustDist(d montecarlo.Dist, err error) montecarlo.Dist {
-	if err != nil {
-		panic(err)
-	}
-	return d
-}
-
-// z999 is the two-sided 99.9 % normal quantile: the exact-value checks use
-// 99.9 % intervals, so that a fixed seed fails them with probability ≈ 0.1 %
-// per check.
-const conf999 = 0.999
+const conf999 = problemtest.Conf999
 
 func run(t *testing.T, p *montecarlo.Problem, n int64, seed uint64, modes ...model.Mode) *montecarlo.Result {
 	t.Helper()
@@ -48,11 +35,9 @@ func run(t *testing.T, p *montecarlo.Problem, n int64, seed uint64, modes ...mod
 	return r
 }
 
-func checkContains(t *testing.T, what string, iv montecarlo.Interval, exact float64) {
+func checkContains(t *testing.T, what string, iv interval.Estimate, exact float64) {
 	t.Helper()
-	if !(iv.Lo <= exact && exact <= iv.Hi) {
-		t.Errorf("%s: exact %.6g outside the 99.9 %% interval [%.6g, %.6g] (estimate %.6g, %d/%d)", what, exact, iv.Lo, iv.Hi, iv.P, iv.Failures, iv.Samples)
-	}
+	problemtest.Contains(t, what, iv, exact)
 }
 
 func TestSeparationNormalLoad(t *testing.T) {
@@ -67,7 +52,7 @@ func TestSeparationNormalLoad(t *testing.T) {
 	exact := 1 - distuv.UnitNormal.CDF((40e3/(1-s.C)-40e3)/6e3)
 	r := run(t, p, 400_000, 3)
 	m, _ := r.Mode(model.Separation)
-	checkContains(t, "separation", m.Interval, exact)
+	checkContains(t, "separation", m.Estimate, exact)
 }
 
 func TestSeparationLognormalRatio(t *testing.T) {
@@ -75,11 +60,11 @@ func TestSeparationLognormalRatio(t *testing.T) {
 	// Ratio of lognormals: Fi = T/(K·d) with K ~ LN(μK, σK), P ~ LN(μP, σP), T fixed.
 	// Separation when P·(1 − C) ≥ T/(K·d) ⇔ ln P + ln K ≥ ln(T/(d(1 − C))):
 	//   p = 1 − Φ((ln(T/(d(1 − C))) − μP − μK)/√(σP² + σK²))  (closed form,
-	// lognormalCase in study_test.go).
-	p, exact := lognormalCase()
+	// problemtest.LognormalSeparation).
+	p, exact := problemtest.LognormalSeparation()
 	r := run(t, p, 400_000, 5)
 	m, _ := r.Mode(model.Separation)
-	checkContains(t, "separation (lognormal ratio)", m.Interval, exact(p.Base.Torque))
+	checkContains(t, "separation (lognormal ratio)", m.Estimate, exact(p.Base.Torque))
 }
 
 func TestProofUniformPreload(t *testing.T) {
@@ -95,7 +80,7 @@ func TestProofUniformPreload(t *testing.T) {
 	exact := (b - (830*in.Thread.StressArea - s.C*30e3)) / (b - a)
 	r := run(t, p, 200_000, 7)
 	m, _ := r.Mode(model.Proof)
-	checkContains(t, "proof (uniform preload)", m.Interval, exact)
+	checkContains(t, "proof (uniform preload)", m.Estimate, exact)
 }
 
 func TestSeveralBoltsBinomial(t *testing.T) {
@@ -111,11 +96,11 @@ func TestSeveralBoltsBinomial(t *testing.T) {
 	pb := 1 - distuv.UnitNormal.CDF((830*in.Thread.StressArea-s.C*30e3-60e3)/4e3)
 	r := run(t, p, 200_000, 11)
 	m, _ := r.Mode(model.Proof)
-	checkContains(t, "proof, joint of 6", m.Interval, 1-math.Pow(1-pb, 6))
-	bolt := montecarlo.Wilson(m.BoltFailures, m.BoltSamples, conf999)
+	checkContains(t, "proof, joint of 6", m.Estimate, 1-math.Pow(1-pb, 6))
+	bolt := m.Bolt
 	checkContains(t, "proof, per bolt", bolt, pb)
-	if m.BoltSamples != 6*r.Samples {
-		t.Errorf("bolt evaluations %d, want 6 × %d", m.BoltSamples, r.Samples)
+	if m.Bolt.Samples != 6*r.Samples {
+		t.Errorf("bolt evaluations %d, want 6 × %d", m.Bolt.Samples, r.Samples)
 	}
 }
 
@@ -177,7 +162,7 @@ func TestIntervalCoverage(t *testing.T) {
 		if err != nil {
 			t.Fatal(err)
 		}
-		iv := r.Modes[0].Interval
+		iv := r.Modes[0].Estimate
 		if iv.Lo <= exact && exact <= iv.Hi {
 			covered++
 		}
@@ -196,7 +181,7 @@ func TestR1AgainstReference(t *testing.T) {
 	// shared/bench README, case R1: exact probabilities by numerical
 	// integration over (T, K, P): fatigue 4.52907e-2, separation 1.20344e-4,
 	// proof 3.05489e-2, any of the three 5.35727e-2.
-	s, err := scenario.Example("r1")
+	s, err := scenario.Example("bench-m12")
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -206,7 +191,7 @@ func TestR1AgainstReference(t *testing.T) {
 		exact float64
 	}{{model.Fatigue, 4.52907e-2}, {model.Separation, 1.20344e-4}, {model.Proof, 3.05489e-2}} {
 		m, _ := r.Mode(c.m)
-		checkContains(t, c.m.Key(), m.Interval, c.exact)
+		checkContains(t, c.m.Key(), m.Estimate, c.exact)
 	}
 	checkContains(t, "any", r.Any, 5.35727e-2)
 }
@@ -249,20 +234,19 @@ func TestSameSeedAnyWorkers(t *testing.T) {
 
 func TestLargeRunBinsSomeChunks(t *testing.T) {
 	if testing.Short() {
-		t.Skip("4·10⁶ samples")
+		t.Skip("2·10⁶ samples")
 	}
 	t.Parallel()
-	// Above 2·2²¹ samples the histograms take one chunk in k (here k = 2):
-	// the failure counts still use every sample, the histograms hold exactly
+	// Above 2·2²⁰ samples the sketches take one chunk in k (here k = 2):
+	// the failure counts still use every sample, the sketches hold exactly
 	// the samples of the even chunks, the result is the same for any worker
-	// count, and the percentiles agree with the exact normal quantiles to
-	// within a bin.
+	// count, and the percentiles agree with the exact normal quantiles.
 	in := joint()
 	sd := 3e3
 	p := &montecarlo.Problem{Base: in, Vars: []montecarlo.Var{
 		{Name: "tightening.preload", Dist: mustDist(montecarlo.NewNormal(40e3, sd)), Role: montecarlo.PerBolt, Field: fPreload},
 	}}
-	const n = 2*(1<<21) + 12345 // k = 2; a partial last chunk
+	const n = 2*(1<<20) + 12345 // k = 2; a partial last chunk
 	r := sameForWorkers(t, p, montecarlo.Settings{Samples: n, Seed: 4}, 1, 3)
 	var binned int64 // the samples of chunks 0, 2, 4, …
 	for c := int64(0); c*montecarlo.ChunkSize < n; c += 2 {
@@ -271,21 +255,25 @@ func TestLargeRunBinsSomeChunks(t *testing.T) {
 	if r.BinStride != 2 || r.Samples != n || r.Binned != binned {
 		t.Fatalf("stride %d, samples %d, binned %d; want 2, %d, %d", r.BinStride, r.Samples, r.Binned, n, binned)
 	}
-	h := &r.Q[montecarlo.QPreload]
-	if h.Total() != r.Binned {
-		t.Errorf("preload histogram holds %d values, binned %d", h.Total(), r.Binned)
+	d := &r.Quantities[montecarlo.QPreload]
+	if d.Sketch.Total() != r.Binned {
+		t.Errorf("preload sketch holds %d values, binned %d", d.Sketch.Total(), r.Binned)
 	}
 	m, _ := r.Mode(model.Proof)
-	if m.SF.Total() != r.Binned || m.Interval.Samples != n {
-		t.Errorf("proof: histogram %d values, interval %d samples", m.SF.Total(), m.Interval.Samples)
+	if m.SF.Sketch.Total() != r.Binned || m.Estimate.Samples != n {
+		t.Errorf("proof: sketch %d values, estimate %d samples", m.SF.Sketch.Total(), m.Estimate.Samples)
 	}
-	// Quantiles of N(40 kN, 3 kN) (closed form), within a bin width plus
+	// Quantiles of N(40 kN, 3 kN) (closed form), within the rank error plus
 	// five standard errors of a sample quantile, √(q(1−q)/n)/φ(z)·σ.
-	for _, q := range []float64{0.01, 0.5, 0.99} {
+	for i, q := range montecarlo.Levels {
 		z := distuv.UnitNormal.Quantile(q)
 		want := 40e3 + sd*z
-		tol := h.Width() + 5*math.Sqrt(q*(1-q)/float64(r.Binned))/distuv.UnitNormal.Prob(z)*sd
-		if got := h.Quantile(q); math.Abs(got-want) > tol {
+		pc := d.Percentiles[i]
+		if pc.RankError > montecarlo.RankTolerance {
+			t.Errorf("preload %g: rank error %g", q, pc.RankError)
+		}
+		tol := (pc.RankError + 5*math.Sqrt(q*(1-q)/float64(r.Binned))) / distuv.UnitNormal.Prob(z) * sd
+		if got := pc.Value; math.Abs(got-want) > tol {
 			t.Errorf("preload %g-quantile %.1f N, want %.1f ± %.1f", q, got, want, tol)
 		}
 	}
@@ -303,29 +291,34 @@ func TestNoScatterRunsEverySample(t *testing.T) {
 		t.Fatal(err)
 	}
 	m, _ := r.Mode(model.Proof)
-	if r.Samples != 50_000 || m.Interval.Failures != 50_000 || r.Any.Failures != 50_000 {
-		t.Errorf("samples %d, proof failures %d, any %d; want all 50000", r.Samples, m.Interval.Failures, r.Any.Failures)
+	if r.Samples != 50_000 || m.Estimate.Failures != 50_000 || r.Any.Failures != 50_000 {
+		t.Errorf("samples %d, proof failures %d, any %d; want all 50000", r.Samples, m.Estimate.Failures, r.Any.Failures)
 	}
 }
 
-func TestTargetStops(t *testing.T) {
+func TestPrecisionStops(t *testing.T) {
 	t.Parallel()
 	in := joint()
 	p := &montecarlo.Problem{Base: in, Vars: []montecarlo.Var{
 		{Name: "loads.axial_max", Dist: mustDist(montecarlo.NewNormal(40e3, 6e3)), Role: montecarlo.Load, Field: fAxial},
 	}}
-	r, err := montecarlo.Run(context.Background(), p, montecarlo.Settings{Samples: 50_000_000, Seed: 1, Target: 0.05})
+	r, err := montecarlo.Run(context.Background(), p, montecarlo.Settings{Samples: 50_000_000, Seed: 1, Precision: 0.02, Modes: []model.Mode{model.Separation, model.Proof}})
 	if err != nil {
 		t.Fatal(err)
 	}
-	if !r.Converged || r.Samples >= 50_000_000 || r.Any.RelHalfWidth() > 0.05 {
-		t.Errorf("target 5 %%: converged %v after %d samples, rel. half-width %.3f", r.Converged, r.Samples, r.Any.RelHalfWidth())
+	if !r.Converged || r.Samples >= 50_000_000 || r.Any.COV > 0.02 {
+		t.Errorf("precision 2 %%: converged %v after %d samples, c.o.v. %.4f", r.Converged, r.Samples, r.Any.COV)
+	}
+	for _, m := range r.Modes {
+		if m.Estimate.Failures > 0 && m.Estimate.COV > 0.02 {
+			t.Errorf("%s: c.o.v. %.4f", m.Mode, m.Estimate.COV)
+		}
 	}
 }
 
 func TestInterruptGivesPartial(t *testing.T) {
 	t.Parallel()
-	s, _ := scenario.Example("r1")
+	s, _ := scenario.Example("bench-m12")
 	ctx, cancel := context.WithCancel(context.Background())
 	set := montecarlo.Settings{Samples: 1e9, Seed: 1, Workers: 2, Progress: func(done, total int64) {
 		if done > 1_000_000 {
@@ -362,7 +355,7 @@ func TestInvalidSamplesCounted(t *testing.T) {
 		t.Errorf("samples %d + invalid %d ≠ 100000", r.Samples, r.Invalid)
 	}
 	for _, m := range r.Modes {
-		if math.IsNaN(m.Interval.P) || math.IsNaN(m.Interval.Hi) {
+		if math.IsNaN(m.Estimate.P) || math.IsNaN(m.Estimate.Hi) {
 			t.Errorf("%s: NaN in result", m.Mode.Key())
 		}
 	}
@@ -374,27 +367,10 @@ func TestBadSettings(t *testing.T) {
 	p := &montecarlo.Problem{Base: in}
 	for _, s := range []montecarlo.Settings{
 		{Samples: 0}, {Samples: -5}, {Samples: 2e11}, {Samples: 10, Confidence: 1}, {Samples: 10, Confidence: -0.1},
-		{Samples: 10, Target: 1.5}, {Samples: 10, Workers: -1}, {Samples: 10, Modes: []model.Mode{model.Slip}},
+		{Samples: 10, Precision: 1.5}, {Samples: 10, Workers: -1}, {Samples: 10, Modes: []model.Mode{model.Slip}},
 	} {
 		if _, err := montecarlo.Run(context.Background(), p, s); err == nil {
 			t.Errorf("settings %+v: want error", s)
 		}
-	}
-}
-
-func TestWilson(t *testing.T) {
-	t.Parallel()
-	// Wilson score interval, 95 %: 10 of 100 → [0.0552, 0.1744] (Newcombe 1998,
-	// Statistics in Medicine 17:857, Table I, method 3, values recomputed here
-	// from the formula, from memory of the table).
-	iv := montecarlo.Wilson(10, 100, 0.95)
-	if math.Abs(iv.Lo-0.0552) > 5e-4 || math.Abs(iv.Hi-0.1744) > 5e-4 {
-		t.Errorf("Wilson(10, 100) = [%.4f, %.4f], want [0.0552, 0.1744]", iv.Lo, iv.Hi)
-	}
-	// Zero failures: one-sided exact bound 1 − 0.05^(1/n) ≈ 3/n ("rule of three",
-	// Hanley & Lippman-Hand 1983, JAMA 249:1743).
-	iv = montecarlo.Wilson(0, 1_000_000, 0.95)
-	if !iv.UpperOnly || iv.Lo != 0 || math.Abs(iv.Hi-2.9957e-6) > 1e-9 {
-		t.Errorf("Wilson(0, 1e6) = %+v, want upper bound 2.9957e-6", iv)
 	}
 }

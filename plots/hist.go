@@ -10,15 +10,16 @@ import (
 )
 
 // Hist is a histogram of equal bins over [Lo, Hi) with the values below
-// and above counted apart (montecarlo.Histogram in plain form).
+// and above counted apart. Counts may be fractional: a sampled
+// distribution regrouped into display bins splits its own bins' counts.
 type Hist struct {
 	Lo, Hi      float64
-	Counts      []int64
-	Under, Over int64
+	Counts      []float64
+	Under, Over float64
 }
 
 // Total returns the number of values counted, inside and outside the range.
-func (h Hist) Total() int64 {
+func (h Hist) Total() float64 {
 	t := h.Under + h.Over
 	for _, c := range h.Counts {
 		t += c
@@ -37,12 +38,12 @@ func (h Hist) Bars(n int, scale float64) []plotter.HistogramBin {
 	w := (h.Hi - h.Lo) / float64(len(h.Counts))
 	var bins []plotter.HistogramBin
 	for i := 0; i < len(h.Counts); i += g {
-		var c int64
+		var c float64
 		j := min(i+g, len(h.Counts))
 		for _, x := range h.Counts[i:j] {
 			c += x
 		}
-		bins = append(bins, plotter.HistogramBin{Min: (h.Lo + w*float64(i)) / scale, Max: (h.Lo + w*float64(j)) / scale, Weight: float64(c)})
+		bins = append(bins, plotter.HistogramBin{Min: (h.Lo + w*float64(i)) / scale, Max: (h.Lo + w*float64(j)) / scale, Weight: c})
 	}
 	a, b := 0, len(bins)
 	for a < b && bins[a].Weight == 0 {
@@ -140,7 +141,7 @@ func OverlayPlot(title, xlabel string, scale float64, bins int, hs []Overlay) (*
 	lo, hi := math.Inf(1), math.Inf(-1)
 	for i, o := range hs {
 		bars := o.Hist.Bars(bins, scale)
-		total := float64(o.Hist.Total())
+		total := o.Hist.Total()
 		if len(bars) == 0 || total == 0 {
 			p.Legend.Add(o.Name + ": no samples in range")
 			continue

@@ -32,9 +32,10 @@ distributions. Give one FILE with a variants: section (the base and each variant
 or several FILEs (the first is the base).
 
 For each mode it reports each variant's probability, the paired difference from
-the base with its interval (narrower than two independent runs would give), the
-ratio, and a verdict at the chosen confidence — better, worse, or no significant
-difference — from McNemar's exact test on the discordant pairs.
+the base with Newcombe's hybrid score interval for paired proportions (narrower
+than two independent runs would give), the ratio, and a verdict at the chosen
+confidence — better, worse, or no significant difference — from McNemar's exact
+test on the discordant pairs. Each variant keeps its own percentiles.
 
 Variants must be the same joint under the same duty: same bolt count and the
 same service loads; anything else (condition, tool, torque, class…) may differ.
@@ -50,21 +51,21 @@ same service loads; anything else (condition, tool, torque, class…) may differ
 			return runCompare(cmd.Context(), opts)
 		},
 	}
-	opts.addFlags(cmd)
+	opts.addFlags(cmd, true)
 	opts.Run.add(cmd, false)
 	opts.Output.add(cmd)
 	return cmd
 }
 
-// variants loads the scenarios to compare and their labels.
-func loadVariants(files []string, example string) ([]*scenario.Scenario, []string, error) {
+// loadVariants loads the scenarios to compare and their labels.
+func loadVariants(cmd *cobra.Command, files []string, example string) ([]*scenario.Scenario, []string, error) {
 	var ss []*scenario.Scenario
 	var names []string
 	switch {
 	case example != "" && len(files) > 0:
 		return nil, nil, usagef("give scenario FILEs or --example NAME, not both")
 	case example != "" || len(files) == 1:
-		s, err := loadScenario(files, example)
+		s, err := loadScenario(cmd, files, example)
 		if err != nil {
 			return nil, nil, err
 		}
@@ -105,7 +106,7 @@ func label(s *scenario.Scenario) string {
 }
 
 func runCompare(ctx context.Context, opts *CompareOptions) error {
-	ss, names, err := loadVariants(opts.File, opts.Example)
+	ss, names, err := loadVariants(opts.Cmd(), opts.File, opts.Example)
 	if err != nil {
 		return err
 	}
@@ -128,16 +129,17 @@ func runCompare(ctx context.Context, opts *CompareOptions) error {
 	if runErr != nil && !errors.Is(runErr, montecarlo.ErrInterrupted) {
 		return runErr
 	}
-	doc := report.Compare(ss, names, pr, set, toolVersion())
+	doc := report.Compare(ss, names, pr, report.Run{Samples: set.Samples, Interval: set.Interval}, toolVersion())
 	if opts.Output.Dir != "" && !pr.Partial {
 		figs, err := report.CompareFigures(names, pr, sys)
 		if err != nil {
 			return err
 		}
-		rev := report.CompareReview(ss, doc, figs, provenance(ss, set.Seed, pr.Samples, pr.Variants[0].Workers, opts.Output.Now), sys)
+		rev := report.CompareReview(ss, doc, figs, opts.Output.provenance(ss, set.Seed, set.Samples, pr.Samples, pr.Variants[0].Workers), sys)
 		if err := opts.Output.write(rev, ss, opts.ErrOut, opts.Run.Quiet); err != nil {
 			return err
 		}
 	}
-	return opts.finish(doc, func(w io.Writer) { report.WriteCompare(w, doc, sys) }, pr.Partial)
+	return opts.finish(doc, func(w io.Writer) { report.WriteCompare(w, doc, sys) },
+		func(w io.Writer) error { return report.WriteCompareCSV(w, doc) }, pr.Partial, inputFiles(ss...))
 }

@@ -5,6 +5,7 @@ import (
 
 	"github.com/spf13/cobra"
 
+	"boltrisk/model"
 	"boltrisk/montecarlo/report"
 )
 
@@ -16,7 +17,7 @@ type NominalOptions struct {
 func newNominalCmd(stdout io.Writer, runF func(*NominalOptions) error) *cobra.Command {
 	opts := &NominalOptions{common: common{Out: stdout}}
 	cmd := &cobra.Command{
-		Use:   "nominal [FILE]",
+		Use:   "nominal [FILE|-]",
 		Short: "Deterministic check of a joint at its nominal inputs",
 		Long: `Evaluate the joint described in FILE at the nominal value (the mean) of every
 input: stiffnesses, joint constant, preload and its window, and the demand,
@@ -34,7 +35,7 @@ capacity and safety factor of every failure mode.
 			return runNominal(opts)
 		},
 	}
-	opts.addFlags(cmd)
+	opts.addFlags(cmd, false)
 	return cmd
 }
 
@@ -43,6 +44,6 @@ func runNominal(opts *NominalOptions) error {
 	if err != nil {
 		return err
 	}
-	doc := report.Nominal(s, toolVersion())
-	return opts.finish(doc, func(w io.Writer) { report.WriteNominal(w, s, doc, sys) }, false)
+	doc := report.Nominal(s, model.EvaluateNominal(s.Inputs()), toolVersion())
+	return opts.finish(doc, func(w io.Writer) { report.WriteNominal(w, s, doc, sys) }, nil, false, nil)
 }

@@ -67,7 +67,7 @@ func TestOutFolder(t *testing.T) {
 
 func TestOutNeverOverwritesInput(t *testing.T) {
 	dir := t.TempDir()
-	ex, _ := os.ReadFile(filepath.Join("..", "..", "testdata", "examples", "r1.yaml"))
+	ex, _ := os.ReadFile(filepath.Join("..", "..", "testdata", "examples", "bench-m12.yaml"))
 	in := filepath.Join(dir, "report.md") // an input named like an output
 	os.WriteFile(in, ex, 0o644)
 	code, _, errs := runCLI("simulate", in, "--samples", "5000", "--out", dir, "--quiet")
@@ -80,7 +80,7 @@ func TestOutNeverOverwritesInput(t *testing.T) {
 	if ents, _ := os.ReadDir(dir); len(ents) != 1 {
 		t.Errorf("files written despite the refusal: %v", ents)
 	}
-	if code, _, errs := runCLI("simulate", "--example", "r1", "--samples", "1000", "--load-curve", "0.5..2"); code != exitUsage || !strings.Contains(errs, "--out") {
+	if code, _, errs := runCLI("simulate", "--example", "bench-m12", "--samples", "1000", "--load-curve", "0.5..2"); code != exitUsage || !strings.Contains(errs, "--out") {
 		t.Errorf("--load-curve without --out: exit %d %q", code, errs)
 	}
 }

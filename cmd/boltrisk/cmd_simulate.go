@@ -3,6 +3,7 @@ package main
 import (
 	"context"
 	"errors"
+	"fmt"
 	"io"
 
 	"github.com/spf13/cobra"
@@ -10,6 +11,7 @@ import (
 	"boltrisk/montecarlo"
 	"boltrisk/montecarlo/report"
 	"boltrisk/montecarlo/scenario"
+	"boltrisk/montecarlo/study"
 )
 
 // SimulateOptions are the options of `boltrisk simulate`.
@@ -24,21 +26,24 @@ type SimulateOptions struct {
 func newSimulateCmd(stdout, stderr io.Writer, runF func(context.Context, *SimulateOptions) error) *cobra.Command {
 	opts := &SimulateOptions{common: common{Out: stdout, ErrOut: stderr}}
 	cmd := &cobra.Command{
-		Use:   "simulate [FILE]",
+		Use:   "simulate [FILE|-]",
 		Short: "Monte Carlo: probability of each failure mode with confidence bounds",
-		Long: `Sample the uncertain inputs of the joint in FILE (torque, nut factor or friction,
-strengths, loads, …), evaluate the joint for every sample, and report the
-probability of each failure mode and of any mode, with confidence intervals,
-percentiles of preload, bolt force, clamp force and safety factors.
+		Long: `Sample the uncertain inputs of the joint in FILE (- reads standard input) —
+torque, nut factor or friction, strengths, loads, … — evaluate the joint for
+every sample, and report the probability of each failure mode and of any mode,
+with its coefficient of variation and confidence interval, and percentiles of
+preload, bolt force, clamp force and safety factors.
 
 Results are reproducible: the same --seed gives identical numbers for any
---workers. Ctrl-C stops cleanly and reports what was done, marked partial.
+--workers. Ctrl-C (or SIGTERM, SIGHUP) stops cleanly and reports what was done,
+marked partial.
 
 ` + report.Caution + "\n" + exitCodesHelp,
 		Example: `  boltrisk simulate --example cover-flange
   boltrisk simulate joint.yaml --samples 1e7 --seed 42 --json
-  boltrisk simulate joint.yaml --target 0.05 --samples 1e8
-  boltrisk simulate --example cover-flange --out review --load-curve 0.5..2`,
+  boltrisk simulate joint.yaml --precision 5% --samples 1e9
+  boltrisk simulate --example cover-flange --out review --load-curve 0.5..2
+  boltrisk simulate - < joint.yaml --csv modes.csv`,
 		Args: cobra.MaximumNArgs(1),
 		RunE: func(cmd *cobra.Command, args []string) error {
 			opts.bind(cmd, args)
@@ -48,7 +53,7 @@ Results are reproducible: the same --seed gives identical numbers for any
 			return runSimulate(cmd.Context(), opts)
 		},
 	}
-	opts.addFlags(cmd)
+	opts.addFlags(cmd, true)
 	opts.Run.add(cmd, true)
 	opts.Output.add(cmd)
 	cmd.Flags().StringVar(&opts.LoadCurve, "load-curve", "", "with --out: also draw the probability of each mode against a multiplier LO..HI on the service loads, e.g. 0.5..2")
@@ -68,8 +73,9 @@ func runSimulate(ctx context.Context, opts *SimulateOptions) error {
 	if opts.LoadCurve != "" && opts.Output.Dir == "" {
 		return usagef("--load-curve draws a picture: give --out DIR too")
 	}
+	var curve study.Vary
 	if opts.LoadCurve != "" {
-		if _, err = parseVary("load="+opts.LoadCurve, s, opts.LoadSteps); err != nil {
+		if curve, err = parseVary("load="+opts.LoadCurve, s, opts.LoadSteps); err != nil {
 			return usagef("--load-curve %q: %v", opts.LoadCurve, errors.Unwrap(err))
 		}
 	}
@@ -81,42 +87,53 @@ func runSimulate(ctx context.Context, opts *SimulateOptions) error {
 		return runErr
 	}
 	opts.Run.timing(opts.ErrOut, res.Samples+res.Invalid, res.Elapsed)
-	doc := report.Simulation(s, res, set.Target, toolVersion())
+	doc := report.Simulation(s, res, report.Run{Samples: set.Samples, Interval: set.Interval}, toolVersion())
 	if opts.Output.Dir != "" {
-		if err := writeSimulationReview(ctx, opts, s, res, doc, set); err != nil {
+		if err := writeSimulationReview(ctx, opts, s, res, &doc, set, curve); err != nil {
 			return err
 		}
 	}
-	return opts.finish(doc, func(w io.Writer) { report.WriteSimulation(w, s, doc, sys) }, res.Partial)
+	return opts.finish(doc, func(w io.Writer) { report.WriteSimulation(w, s, doc, sys) },
+		func(w io.Writer) error { return report.WriteSimulationCSV(w, doc) }, res.Partial, inputFiles(s))
 }
 
-func writeSimulationReview(ctx context.Context, opts *SimulateOptions, s *scenario.Scenario, res *montecarlo.Result, doc report.SimDoc, set montecarlo.Settings) error {
+// writeSimulationReview writes the review folder. An interruption during
+// the load curve keeps the finished main result: the review is written
+// without the curve, and says so.
+func writeSimulationReview(ctx context.Context, opts *SimulateOptions, s *scenario.Scenario, res *montecarlo.Result, doc *report.SimDoc, set montecarlo.Settings, curve study.Vary) error {
 	sys, _ := opts.system(s)
-	pf, _, err := report.PreloadFigure(s, res, sys)
-	if err != nil {
-		return err
+	var figs []report.Figure
+	if res.HasDistributions() {
+		pf, _, err := report.PreloadFigure(s, res, sys)
+		if err != nil {
+			return err
+		}
+		sf, err := report.SafetyFactorFigures(s, res)
+		if err != nil {
+			return err
+		}
+		figs = append(append(figs, pf), sf...)
 	}
-	figs := []report.Figure{pf}
-	sf, err := report.SafetyFactorFigures(s, res)
-	if err != nil {
-		return err
-	}
-	figs = append(figs, sf...)
-	if opts.LoadCurve != "" {
-		v, _ := parseVary("load="+opts.LoadCurve, s, opts.LoadSteps)
+	if opts.LoadCurve != "" && !res.Partial {
 		lset := set
-		lset.Target, lset.Progress = 0, nil
-		sw, err := montecarlo.RunSweep(ctx, &s.Problem, v, lset)
-		if err != nil {
+		lset.Precision, lset.Progress = 0, nil
+		sw, err := study.Run(ctx, &s.Problem, curve, lset, 0)
+		switch {
+		case errors.Is(err, montecarlo.ErrInterrupted):
+			doc.Warnings = append(doc.Warnings, fmt.Sprintf("the load curve was interrupted after %d of %d steps and is left out; the main result above is complete", len(sw.Steps), curve.Steps))
+			res.Partial = true // the exit status says the output is incomplete
+			doc.Partial = false
+		case err != nil:
 			return err
+		default:
+			f, _, err := report.CurveFigure(s, sw, sys, "load-curve.png", "Failure probability against load level")
+			if err != nil {
+				return err
+			}
+			figs = append(figs, f)
 		}
-		f, _, err := report.CurveFigure(s, sw, 0, sys, "load-curve.png", "Failure probability against load level")
-		if err != nil {
-			return err
-		}
-		figs = append(figs, f)
 	}
 	ss := []*scenario.Scenario{s}
-	rev := report.SimulationReview(s, doc, figs, provenance(ss, res.Seed, res.Samples, res.Workers, opts.Output.Now), sys)
+	rev := report.SimulationReview(s, *doc, figs, opts.Output.provenance(ss, res.Seed, set.Samples, res.Samples, res.Workers), sys)
 	return opts.Output.write(rev, ss, opts.ErrOut, opts.Run.Quiet)
 }

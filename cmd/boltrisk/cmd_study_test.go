@@ -23,14 +23,21 @@ func TestSimulateGolden(t *testing.T) {
 			t.Errorf("simulate JSON lacks %q", k)
 		}
 	}
-	modes := doc["modes"].(map[string]any)
-	if _, ok := modes["any"]; !ok {
-		t.Error("modes lacks any")
+	// JSON contract of issue 12: method and evaluations; every mode object,
+	// any included, with cov.
+	for _, k := range []string{"method", "evaluations"} {
+		if _, ok := doc[k]; !ok {
+			t.Errorf("simulate JSON lacks %q", k)
+		}
 	}
-	for k, m := range modes {
-		for _, f := range []string{"probability", "ci_low", "ci_high", "failures"} {
+	modes := doc["modes"].([]any)
+	if last := modes[len(modes)-1].(map[string]any); last["key"] != "any" {
+		t.Error("modes does not end with any")
+	}
+	for _, m := range modes {
+		for _, f := range []string{"key", "probability", "cov", "ci_low", "ci_high", "failures", "interval"} {
 			if _, ok := m.(map[string]any)[f]; !ok {
-				t.Errorf("mode %s lacks %s", k, f)
+				t.Errorf("mode %v lacks %s", m.(map[string]any)["key"], f)
 			}
 		}
 	}
@@ -39,7 +46,7 @@ func TestSimulateGolden(t *testing.T) {
 	}
 	golden(t, "simulate_bracket-shear.json", []byte(out))
 	code, text, _ := runCLI("simulate", "--example", "bracket-shear", "--samples", "20000", "--quiet")
-	if code != 0 || !strings.Contains(text, "CAUTION") || !strings.Contains(text, "slip") {
+	if code != 0 || !strings.Contains(text, "CAUTION") || !strings.Contains(text, "Slip") {
 		t.Errorf("text report: exit %d\n%s", code, text)
 	}
 }
@@ -60,7 +67,7 @@ func TestSweepAndCompareGolden(t *testing.T) {
 		t.Errorf("compare text:\n%s", text)
 	}
 	code, text, _ = runCLI("sweep", "--example", "cover-flange", "--max-scatter", "torque", "--target", "1e-2", "--samples", "20000", "--quiet")
-	if code != 0 || !strings.Contains(text, "Largest scatter of tightening.torque") {
+	if code != 0 || !strings.Contains(text, "largest scatter of tightening.torque") {
 		t.Errorf("max-scatter: exit %d\n%s", code, text)
 	}
 }
@@ -96,7 +103,9 @@ func TestStudyBadInvocations(t *testing.T) {
 		{[]string{"simulate", a, "--samples", "0"}, exitUsage, "--samples"},
 		{[]string{"simulate", a, "--samples", "1e12"}, exitUsage, "--samples"},
 		{[]string{"simulate", a, "--confidence", "1"}, exitUsage, "--confidence"},
-		{[]string{"simulate", a, "--target", "-0.1"}, exitUsage, "--target"},
+		{[]string{"simulate", a, "--precision", "-0.1"}, exitUsage, "--precision"},
+		{[]string{"simulate", a, "--target", "0.1"}, exitUsage, "unknown flag: --target"},
+		{[]string{"simulate", a, "--interval", "jeffreys"}, exitUsage, "--interval"},
 		{[]string{"simulate", a, "--modes", "fatique"}, exitUsage, "unknown mode"},
 	} {
 		code, out, errs := runCLI(test.args...)

@@ -12,6 +12,7 @@ import (
 	"boltrisk/montecarlo"
 	"boltrisk/montecarlo/report"
 	"boltrisk/montecarlo/scenario"
+	"boltrisk/montecarlo/study"
 )
 
 // SweepOptions are the options of `boltrisk sweep`.
@@ -43,9 +44,13 @@ smooth and differences between steps are not sampling noise.
                          (1 = the scenario's own), e.g. spread:torque=0.5..3
 
 With --target P it reports the window of the varied value in which every mode,
-and the joint as a whole, stays at or below the failure probability P, which
-modes bound it on each side, and the value with the least probability; or says
-plainly that no value meets the target.
+and the joint as a whole, stays at or below the failure probability P — from
+the point estimates and, conservatively, from the upper confidence bounds —
+with each end refined by bisection beyond the grid (common random numbers) and
+its resolution, which modes bound it on each side, and the value with the
+least probability; or says plainly that no value meets the target. Steps
+where fewer than half the samples lie in the model's domain are marked and
+never bound a window.
 
 With --max-scatter INPUT and --target P it answers the inverse question instead:
 the largest scatter of INPUT (at the scenario's nominal values) that still meets P.
@@ -64,7 +69,7 @@ the largest scatter of INPUT (at the scenario's nominal values) that still meets
 		},
 	}
 	fl := cmd.Flags()
-	opts.addFlags(cmd)
+	opts.addFlags(cmd, true)
 	fl.StringVar(&opts.Vary, "vary", "", "what to vary: INPUT=LO..HI[UNIT], load=LO..HI or spread:INPUT=LO..HI")
 	fl.IntVar(&opts.Steps, "steps", 11, "number of equally spaced values, ≥ 2")
 	fl.Float64Var(&opts.Target, "target", 0, "target failure probability in (0, 1): report the window that meets it")
@@ -75,8 +80,8 @@ the largest scatter of INPUT (at the scenario's nominal values) that still meets
 }
 
 // parseVary reads a --vary specification against a scenario.
-func parseVary(spec string, s *scenario.Scenario, steps int) (montecarlo.Vary, error) {
-	v := montecarlo.Vary{Steps: steps}
+func parseVary(spec string, s *scenario.Scenario, steps int) (study.Vary, error) {
+	v := study.Vary{Steps: steps}
 	name, rng, ok := strings.Cut(spec, "=")
 	if !ok || strings.TrimSpace(rng) == "" {
 		return v, usagef("--vary %q: expected INPUT=LO..HI[UNIT], load=LO..HI or spread:INPUT=LO..HI", spec)
@@ -85,19 +90,19 @@ func parseVary(spec string, s *scenario.Scenario, steps int) (montecarlo.Vary, e
 	dim := units.None
 	switch {
 	case name == "load":
-		v.Kind = montecarlo.VaryLoad
+		v.Kind = study.Load
 	case strings.HasPrefix(name, "spread:"):
 		path, err := scenario.ResolvePath(strings.TrimPrefix(name, "spread:"))
 		if err != nil {
 			return v, usagef("--vary %q: %v", spec, err)
 		}
-		v.Kind, v.Path = montecarlo.VarySpread, path
+		v.Kind, v.Path = study.Spread, path
 	default:
 		path, err := scenario.ResolvePath(name)
 		if err != nil {
 			return v, usagef("--vary %q: %v (also allowed: load, spread:INPUT)", spec, err)
 		}
-		v.Kind, v.Path, v.Field = montecarlo.VaryInput, path, scenario.FieldPtrFunc(path)
+		v.Kind, v.Path, v.Field = study.Input, path, scenario.FieldPtrFunc(path)
 		dim = scenario.FieldDim(path)
 	}
 	lo, hi, ok := strings.Cut(rng, "..")
@@ -145,14 +150,19 @@ func runSweep(ctx context.Context, opts *SweepOptions) error {
 	if err != nil {
 		return err
 	}
-	if opts.Target != 0 && !(opts.Target > 0 && opts.Target < 1) {
-		return usagef("--target %g: a failure probability strictly between 0 and 1, e.g. 1e-4", opts.Target)
+	target := opts.Target
+	if !opts.Cmd().Flags().Changed("target") && s.Study.TargetProbability > 0 {
+		target = s.Study.TargetProbability
 	}
+	if target != 0 && !(target > 0 && target < 1) {
+		return usagef("--target %g: a failure probability strictly between 0 and 1, e.g. 1e-4", target)
+	}
+	ss := []*scenario.Scenario{s}
 	if opts.MaxScatter != "" {
 		if opts.Vary != "" {
 			return usagef("give --vary or --max-scatter, not both")
 		}
-		if opts.Target == 0 {
+		if target == 0 {
 			return usagef("--max-scatter needs --target (a failure probability, e.g. 1e-4)")
 		}
 		path, err := scenario.ResolvePath(opts.MaxScatter)
@@ -160,24 +170,24 @@ func runSweep(ctx context.Context, opts *SweepOptions) error {
 			return usagef("--max-scatter %q: %v", opts.MaxScatter, err)
 		}
 		var done func()
-		set.Progress, done = opts.Run.progress(opts.ErrOut, 14*set.Samples, "searching")
-		sl, err := montecarlo.FindSpreadLimit(ctx, &s.Problem, path, opts.Target, set)
+		set.Progress, done = opts.Run.progress(opts.ErrOut, study.SpreadRuns*set.Samples, "searching")
+		sl, err := study.FindSpreadLimit(ctx, &s.Problem, path, target, set)
 		done()
 		if err != nil {
 			if errors.Is(err, montecarlo.ErrInterrupted) {
-				return errPartial
+				return errors.New("interrupted: the search for the largest scatter needs all its runs; nothing was written")
 			}
 			return usagef("--max-scatter %q: %v", opts.MaxScatter, err)
 		}
-		doc := report.SpreadLimit(s, sl, set, toolVersion())
+		doc := report.SpreadLimit(s, sl, set.Samples, set.Seed, set.Confidence, toolVersion())
 		if opts.Output.Dir != "" {
-			ss := []*scenario.Scenario{s}
-			rev := report.SweepReview(s, doc, nil, provenance(ss, set.Seed, set.Samples, set.Workers, opts.Output.Now), sys)
+			rev := report.SweepReview(s, doc, nil, opts.Output.provenance(ss, set.Seed, set.Samples, set.Samples, set.Workers), sys)
 			if err := opts.Output.write(rev, ss, opts.ErrOut, opts.Run.Quiet); err != nil {
 				return err
 			}
 		}
-		return opts.finish(doc, func(w io.Writer) { report.WriteSweep(w, s, doc, sys) }, false)
+		return opts.finish(doc, func(w io.Writer) { report.WriteSweep(w, s, doc, sys) },
+			func(w io.Writer) error { return report.WriteSweepCSV(w, doc) }, false, inputFiles(s))
 	}
 	if opts.Vary == "" {
 		return usagef("--vary is required (e.g. --vary torque=40..70N*m), or use --max-scatter")
@@ -188,22 +198,22 @@ func runSweep(ctx context.Context, opts *SweepOptions) error {
 	}
 	var done func()
 	set.Progress, done = opts.Run.progress(opts.ErrOut, int64(opts.Steps)*set.Samples, "sweeping")
-	sw, runErr := montecarlo.RunSweep(ctx, &s.Problem, v, set)
+	sw, runErr := study.Run(ctx, &s.Problem, v, set, target)
 	done()
 	if runErr != nil && !errors.Is(runErr, montecarlo.ErrInterrupted) {
 		return runErr
 	}
-	doc := report.Sweep(s, sw, set, opts.Target, toolVersion())
+	doc := report.Sweep(s, sw, toolVersion())
 	if opts.Output.Dir != "" && !sw.Partial {
-		f, _, err := report.CurveFigure(s, sw, opts.Target, sys, "reliability.png", "Failure probability against "+v.Path)
+		f, _, err := report.CurveFigure(s, sw, sys, "reliability.png", "Failure probability against "+v.Path)
 		if err != nil {
 			return err
 		}
-		ss := []*scenario.Scenario{s}
-		rev := report.SweepReview(s, doc, []report.Figure{f}, provenance(ss, set.Seed, set.Samples, set.Workers, opts.Output.Now), sys)
+		rev := report.SweepReview(s, doc, []report.Figure{f}, opts.Output.provenance(ss, set.Seed, set.Samples, set.Samples, sw.Settings.Workers), sys)
 		if err := opts.Output.write(rev, ss, opts.ErrOut, opts.Run.Quiet); err != nil {
 			return err
 		}
 	}
-	return opts.finish(doc, func(w io.Writer) { report.WriteSweep(w, s, doc, sys) }, sw.Partial)
+	return opts.finish(doc, func(w io.Writer) { report.WriteSweep(w, s, doc, sys) },
+		func(w io.Writer) error { return report.WriteSweepCSV(w, doc) }, sw.Partial, inputFiles(s))
 }

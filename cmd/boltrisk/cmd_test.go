@@ -66,13 +66,12 @@ func TestNominalGolden(t *testing.T) {
 				t.Errorf("%s: JSON lacks %q", name, k)
 			}
 		}
-		for key, m := range doc["modes"].(map[string]any) {
+		for _, m := range doc["modes"].([]any) {
 			mm := m.(map[string]any)
-			if _, ok := mm["safety_factor"]; !ok {
-				t.Errorf("%s: mode %s lacks safety_factor", name, key)
-			}
-			if _, ok := mm["margin"]; !ok {
-				t.Errorf("%s: mode %s lacks margin", name, key)
+			for _, f := range []string{"key", "safety_factor", "margin"} {
+				if _, ok := mm[f]; !ok {
+					t.Errorf("%s: mode %v lacks %s", name, mm["key"], f)
+				}
 			}
 		}
 		golden(t, "nominal_"+name+".json", []byte(out))
@@ -84,7 +83,7 @@ func TestNominalText(t *testing.T) {
 	if code != 0 {
 		t.Fatal(out)
 	}
-	for _, want := range []string{"1/2-13 UNC", "lbf*ft", "ksi", "kip", "CAUTION", "fatigue", "joint constant C"} {
+	for _, want := range []string{"1/2-13 UNC", "lbf*ft", "ksi", "kip", "CAUTION", "Fatigue", "joint constant C"} {
 		if !strings.Contains(out, want) {
 			t.Errorf("text report lacks %q", want)
 		}
@@ -106,7 +105,7 @@ func TestBadInvocations(t *testing.T) {
 		want string
 	}{
 		{[]string{"nominal"}, exitUsage, "scenario FILE is required"},
-		{[]string{"nominal", "--units", "imperial", "--example", "r1"}, exitUsage, "unknown unit system"},
+		{[]string{"nominal", "--units", "imperial", "--example", "bench-m12"}, exitUsage, "unknown unit system"},
 		{[]string{"nominal", bad}, exitError, "bad.yaml:2: bolt.thread = \"M13\""},
 		{[]string{"nominal", filepath.Join(dir, "missing.yaml")}, exitError, "cannot read scenario"},
 		{[]string{"nominal", "--example", "nope"}, exitError, "no built-in example"},
@@ -139,7 +138,7 @@ func TestHelpOfEveryCommand(t *testing.T) {
 }
 
 func TestCatalog(t *testing.T) {
-	for _, topic := range catalogTopics {
+	for _, topic := range report.CatalogTopics {
 		code, out, _ := runCLI("catalog", topic)
 		if code != 0 || len(out) < 100 {
 			t.Errorf("catalog %s: exit %d, %d bytes", topic, code, len(out))

@@ -20,25 +20,19 @@ type outFlags struct {
 }
 
 func (o *outFlags) add(cmd *cobra.Command) {
-	cmd.Flags().StringVar(&o.Dir, "out", "", "write PNG pictures, report.md and a self-contained report.html into this folder (created if missing)")
+	cmd.Flags().StringVar(&o.Dir, "out", "", "write PNG pictures, report.md and a self-contained report.html into this folder (created, or replaced as a whole at the end)")
 	o.Now = time.Now
 }
 
 // provenance describes the run for the report.
-func provenance(ss []*scenario.Scenario, seed uint64, samples int64, workers int, now func() time.Time) report.Provenance {
+func (o *outFlags) provenance(ss []*scenario.Scenario, seed uint64, requested, samples int64, workers int) report.Provenance {
 	return report.Provenance{Version: toolVersion(), Command: "boltrisk " + strings.Join(os.Args[1:], " "),
-		Seed: seed, Samples: samples, Workers: workers, Date: now(), Inputs: ss}
+		Seed: seed, Requested: requested, Samples: samples, Workers: workers, Date: o.Now(), Inputs: ss}
 }
 
 // write writes the review and lists the files on stderr.
 func (o *outFlags) write(r *report.Review, ss []*scenario.Scenario, stderr io.Writer, quiet bool) error {
-	var protect []string
-	for _, s := range ss {
-		if s.File != "" {
-			protect = append(protect, s.File)
-		}
-	}
-	files, err := report.WriteOutputs(o.Dir, r, protect)
+	files, err := report.WriteOutputs(o.Dir, r, inputFiles(ss...))
 	if err != nil {
 		return err
 	}

@@ -14,7 +14,9 @@ import (
 	"golang.org/x/term"
 
 	"boltrisk/model"
+	"boltrisk/model/units"
 	"boltrisk/montecarlo"
+	"boltrisk/montecarlo/interval"
 	"boltrisk/montecarlo/scenario"
 )
 
@@ -27,23 +29,25 @@ type runFlags struct {
 	Seed       uint64
 	Workers    int
 	Confidence float64
-	Target     float64
+	Precision  string
+	Interval   string
 	Quiet      bool
 	Modes      string
 	changed    func(string) bool
 	precision  bool
 }
 
-// add registers the flags; precision adds --target (relative half-width),
-// which only simulate uses.
+// add registers the flags; precision adds --precision (the stopping rule),
+// which the commands with a fixed sample count per run do not take.
 func (f *runFlags) add(cmd *cobra.Command, precision bool) {
 	fl := cmd.Flags()
-	fl.StringVar(&f.Samples, "samples", "", "number of samples, e.g. 1e6 (default: the scenario's study.samples, else 1e6); the cap when --target is set")
-	fl.Uint64Var(&f.Seed, "seed", 1, "seed of the random streams (default: the scenario's study.seed, else 1); the same seed gives identical results for any --workers")
+	fl.StringVar(&f.Samples, "samples", "", "number of samples, e.g. 1e6 (default: the scenario's study.samples, else 1e6); the cap when --precision is set")
+	fl.Uint64Var(&f.Seed, "seed", 0, "seed of the random streams (default: the scenario's study.seed, else 1); the same seed gives identical results for any --workers")
 	fl.IntVar(&f.Workers, "workers", 0, "parallel workers (default: all cores)")
 	fl.Float64Var(&f.Confidence, "confidence", 0.95, "two-sided confidence of the intervals, in (0, 1)")
+	fl.StringVar(&f.Interval, "interval", "auto", "interval of each probability: auto (exact below 20 failures, Wilson above), exact (Clopper–Pearson) or wilson")
 	if precision {
-		fl.Float64Var(&f.Target, "target", 0, "stop once every failing mode's interval half-width is within this fraction of its estimate, e.g. 0.1")
+		fl.StringVar(&f.Precision, "precision", "", "stop once the coefficient of variation of every reported probability (each mode that failed, and any mode) is at most this, e.g. 5% or 0.05")
 	}
 	fl.BoolVar(&f.Quiet, "quiet", false, "no progress bar or timing line on stderr")
 	fl.StringVar(&f.Modes, "modes", "", "comma-separated mode keys to tally (default: every active mode)")
@@ -54,7 +58,10 @@ func (f *runFlags) add(cmd *cobra.Command, precision bool) {
 // settings turns the flags (and the scenario's study section) into runner
 // settings; errors are usage errors naming the flag.
 func (f *runFlags) settings(s *scenario.Scenario) (montecarlo.Settings, error) {
-	set := montecarlo.Settings{Seed: f.Seed, Workers: f.Workers, Confidence: f.Confidence, Target: f.Target}
+	set := montecarlo.Settings{Seed: 1, Workers: f.Workers, Confidence: f.Confidence}
+	if f.changed("seed") {
+		set.Seed = f.Seed
+	}
 	switch {
 	case f.changed("samples"):
 		v, err := strconv.ParseFloat(strings.TrimSpace(f.Samples), 64)
@@ -73,14 +80,25 @@ func (f *runFlags) settings(s *scenario.Scenario) (montecarlo.Settings, error) {
 	if !f.changed("confidence") && s.Study.Confidence > 0 {
 		set.Confidence = s.Study.Confidence
 	}
-	if f.precision && !f.changed("target") && s.Study.Target > 0 {
-		set.Target = s.Study.Target
+	if f.precision {
+		switch {
+		case f.changed("precision"):
+			c, err := units.Parse(f.Precision, units.Fraction)
+			if err != nil || !(c > 0 && c < 1) {
+				return set, usagef("--precision %q: a coefficient of variation strictly between 0 and 1, e.g. 5%% or 0.05", f.Precision)
+			}
+			set.Precision = c
+		case s.Study.Precision > 0:
+			set.Precision = s.Study.Precision
+		}
 	}
+	m, err := interval.ParseMethod(f.Interval)
+	if err != nil {
+		return set, usagef("--interval %q: allowed auto, exact, wilson", f.Interval)
+	}
+	set.Interval = m
 	if !(set.Confidence > 0 && set.Confidence < 1) {
 		return set, usagef("--confidence %g: must lie strictly between 0 and 1 (e.g. 0.95)", set.Confidence)
-	}
-	if set.Target < 0 || set.Target >= 1 || math.IsNaN(set.Target) {
-		return set, usagef("--target %g: a relative half-width strictly between 0 and 1 (e.g. 0.1), or 0 for none", set.Target)
 	}
 	if set.Workers < 0 || set.Workers > 1024 {
 		return set, usagef("--workers %d: from 1 to 1024, or 0 for all cores", set.Workers)

@@ -1,7 +1,6 @@
 package report
 
 import (
-	"encoding/json"
 	"fmt"
 	"io"
 	"math"
@@ -13,28 +12,30 @@ import (
 	"boltrisk/montecarlo/scenario"
 )
 
-// NominalDoc is the deterministic result of a joint at its nominal inputs
-// (JSON contract of `boltrisk nominal --json`).
+// NominalBody is the deterministic result of a joint at its nominal inputs.
+type NominalBody struct {
+	BoltStiffness   float64   `json:"bolt_stiffness_N_per_mm"`
+	MemberStiffness float64   `json:"member_stiffness_N_per_mm"`
+	JointConstant   float64   `json:"joint_constant"`
+	LoadFactor      float64   `json:"load_factor"`
+	AssemblyPreload float64   `json:"assembly_preload_N"`
+	Preload         float64   `json:"preload_N"`
+	ThreadTorque    float64   `json:"thread_torque_N_mm"`
+	BoltForceMax    float64   `json:"bolt_force_max_N"`
+	ClampMin        float64   `json:"clamp_force_min_N"`
+	Window          WindowDoc `json:"preload_window"`
+	Modes           []ModeDoc `json:"modes"` // active modes, report order
+}
+
+// NominalDoc is the document of `boltrisk nominal --json`.
 type NominalDoc struct {
-	SchemaVersion   int                `json:"schema_version"`
-	Kind            string             `json:"kind"`
-	ToolVersion     string             `json:"tool_version"`
-	Scenario        ScenarioInfo       `json:"scenario"`
-	Inputs          []InputRow         `json:"inputs"`
-	BoltStiffness   float64            `json:"bolt_stiffness_N_per_mm"`
-	MemberStiffness float64            `json:"member_stiffness_N_per_mm"`
-	JointConstant   float64            `json:"joint_constant"`
-	LoadFactor      float64            `json:"load_factor"`
-	AssemblyPreload float64            `json:"assembly_preload_N"`
-	Preload         float64            `json:"preload_N"`
-	ThreadTorque    float64            `json:"thread_torque_N_mm"`
-	BoltForceMax    float64            `json:"bolt_force_max_N"`
-	ClampMin        float64            `json:"clamp_force_min_N"`
-	Window          WindowDoc          `json:"preload_window"`
-	Modes           map[string]ModeDoc `json:"modes"`
-	ModeOrder       []string           `json:"mode_order"`
-	Warnings        []string           `json:"warnings"`
-	Caution         string             `json:"caution"`
+	Envelope
+	Scenario ScenarioInfo `json:"scenario"`
+	Joint    JointDoc     `json:"joint"`
+	Inputs   []InputDoc   `json:"inputs"`
+	NominalBody
+	Warnings []string `json:"warnings"`
+	Caution  string   `json:"caution"`
 }
 
 // WindowDoc is the preload window in N.
@@ -51,8 +52,9 @@ type WindowDoc struct {
 
 // ModeDoc is one failure mode at nominal values. Demand and capacity are in
 // Unit ("MPa" or "N"); margin = capacity − demand; the mode fails when the
-// margin is ≤ 0.
+// capacity does not exceed the demand.
 type ModeDoc struct {
+	Key          string  `json:"key"`
 	Title        string  `json:"title"`
 	Demand       float64 `json:"demand"`
 	Capacity     float64 `json:"capacity"`
@@ -62,15 +64,10 @@ type ModeDoc struct {
 	Fails        bool    `json:"fails"`
 }
 
-// Nominal evaluates a scenario at its nominal inputs.
-func Nominal(s *scenario.Scenario, version string) NominalDoc {
-	in := s.Inputs()
-	var o model.Outcome
-	model.Evaluate(in, &o)
-	w := model.PreloadWindow(in)
-	doc := NominalDoc{
-		SchemaVersion: SchemaVersion, Kind: "nominal", ToolVersion: version,
-		Scenario: Info(s), Inputs: Inputs(s, units.SI),
+// Body documents a nominal evaluation.
+func Body(n model.Nominal) NominalBody {
+	o, w := &n.Outcome, n.Window
+	b := NominalBody{
 		BoltStiffness: o.Stiffness.Kb, MemberStiffness: o.Stiffness.Km,
 		JointConstant: o.Stiffness.C, LoadFactor: o.Stiffness.Phi,
 		AssemblyPreload: o.Bolt.AssemblyPreload, Preload: o.Bolt.Preload,
@@ -78,58 +75,44 @@ func Nominal(s *scenario.Scenario, version string) NominalDoc {
 		Window: WindowDoc{Lower: w.Lower, Upper: w.Upper, SeparationMin: w.SeparationMin, SlipMin: w.SlipMin,
 			ProofMax: w.ProofMax, AssemblyMax: w.AssemblyMax, BeneficialMax: w.BeneficialMax,
 			Contains: o.Bolt.Preload >= w.Lower && o.Bolt.Preload <= w.Upper},
-		Modes:    map[string]ModeDoc{},
-		Warnings: []string{},
-		Caution:  Caution,
+		Modes: []ModeDoc{},
 	}
-	for m := model.Mode(0); m < model.NumModes; m++ {
+	for m := range model.NumModes {
 		if !o.Active[m] {
 			continue
 		}
 		u, _ := units.SI.Unit(m.Dim())
-		doc.Modes[m.Key()] = ModeDoc{Title: m.Title(), Demand: o.Demand[m], Capacity: o.Capacity[m], Unit: u,
-			SafetyFactor: FiniteSF(o.SafetyFactor(m)), Margin: o.Margin(m), Fails: o.Fails(m)}
-		doc.ModeOrder = append(doc.ModeOrder, m.Key())
+		b.Modes = append(b.Modes, ModeDoc{Key: m.Key(), Title: m.Title(), Demand: o.Demand[m], Capacity: o.Capacity[m], Unit: u,
+			SafetyFactor: FiniteSF(o.SafetyFactor(m)), Margin: o.Margin(m), Fails: o.Fails(m)})
 	}
-	for _, wr := range s.Warnings {
-		doc.Warnings = append(doc.Warnings, wr.String())
-	}
-	return doc
+	return b
 }
 
-// WriteJSON writes any document as indented JSON.
-func WriteJSON(w io.Writer, doc any) error {
-	enc := json.NewEncoder(w)
-	enc.SetIndent("", "  ")
-	return enc.Encode(doc)
+// Nominal documents a scenario's nominal evaluation n.
+func Nominal(s *scenario.Scenario, n model.Nominal, version string) NominalDoc {
+	return NominalDoc{Envelope: envelope("nominal", version), Scenario: Info(s), Joint: Joint(s), Inputs: Inputs(s, units.SI),
+		NominalBody: Body(n), Warnings: warnings(s), Caution: Caution}
 }
 
-// title writes the heading of a report.
-func title(w io.Writer, verb string, s *scenario.Scenario) {
-	name := s.Name
-	if name == "" {
-		name = "(unnamed scenario)"
+// warnings lists the scenario's warnings.
+func warnings(s *scenario.Scenario) []string {
+	out := []string{}
+	for _, w := range s.Warnings {
+		out = append(out, w.String())
 	}
-	if s.Variant != "" {
-		name += " [" + s.Variant + "]"
-	}
-	fmt.Fprintf(w, "boltrisk %s — %s\n", verb, name)
-	if s.File != "" {
-		fmt.Fprintf(w, "scenario file %s (sha256 %.12s…)\n", s.File, s.SHA256)
-	}
+	return out
 }
 
 // WriteNominal writes the nominal result as terminal text.
 func WriteNominal(w io.Writer, s *scenario.Scenario, doc NominalDoc, sys units.System) {
 	title(w, "nominal", s)
-	fmt.Fprintln(w, "\nInputs")
-	writeRows(w, Inputs(s, sys))
-	writeNominalBody(w, doc, sys)
+	writeInputs(w, doc.Joint, Inputs(s, sys), sys)
+	writeNominalBody(w, doc.NominalBody, sys)
 	writeWarnings(w, doc.Warnings)
 	WriteCaution(w)
 }
 
-func writeNominalBody(w io.Writer, doc NominalDoc, sys units.System) {
+func writeNominalBody(w io.Writer, doc NominalBody, sys units.System) {
 	F := func(v float64) string { return sys.Format(v, units.Force) }
 	fmt.Fprintln(w, "\nStiffness and preload")
 	tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', 0)
@@ -176,49 +159,16 @@ func writeNominalBody(w io.Writer, doc NominalDoc, sys units.System) {
 
 // modeRows returns, per mode at nominal values: key, demand, capacity,
 // safety factor and "ok" or "FAILS", formatted in the display units.
-func modeRows(doc NominalDoc, sys units.System) [][]string {
+func modeRows(doc NominalBody, sys units.System) [][]string {
 	var rows [][]string
-	for _, k := range doc.ModeOrder {
-		md := doc.Modes[k]
-		m, _ := model.ParseMode(k)
+	for _, md := range doc.Modes {
+		m, _ := model.ParseMode(md.Key)
 		dim := m.Dim()
 		res := "ok"
 		if md.Fails {
 			res = "FAILS"
 		}
-		rows = append(rows, []string{k, sys.Format(md.Demand, dim), sys.Format(md.Capacity, dim), fmtSF(md.SafetyFactor), res})
+		rows = append(rows, []string{md.Title, sys.Format(md.Demand, dim), sys.Format(md.Capacity, dim), fmtSF(md.SafetyFactor), res})
 	}
 	return rows
-}
-
-// SFCap stands for an infinite safety factor (a mode with no demand, such
-// as proof with neither preload nor load) in documents: JSON has no infinity.
-const SFCap = 1e9
-
-// FiniteSF caps a safety factor at SFCap and maps NaN to 0.
-func FiniteSF(v float64) float64 {
-	switch {
-	case math.IsNaN(v):
-		return 0
-	case v > SFCap:
-		return SFCap
-	}
-	return v
-}
-
-func fmtSF(v float64) string {
-	if math.IsInf(v, 1) || v > 1e6 {
-		return "> 1e6"
-	}
-	return fmt.Sprintf("%.3f", v)
-}
-
-func writeWarnings(w io.Writer, ws []string) {
-	if len(ws) == 0 {
-		return
-	}
-	fmt.Fprintln(w, "\nWarnings")
-	for _, s := range ws {
-		fmt.Fprintln(w, "  - "+s)
-	}
 }

@@ -1,18 +1,26 @@
-// Package report writes analysis results as terminal text and as JSON
-// documents. Every document carries the caution; JSON fields name their
-// units in their keys and are always in SI (N, mm, MPa, N·mm).
+// Package report formats analysis results as documents: terminal text, JSON
+// (with JSON Schemas generated from the document types), CSV, and the
+// design-review report (Markdown and self-contained HTML with pictures).
+// Documents format; they do not compute: every number comes from a result
+// of the model, the estimators or the studies. Every document carries the
+// caution; JSON fields name their units in their keys or in a unit field
+// and are always in the internal SI system (N, mm, MPa, N·mm).
 package report
 
 import (
+	"encoding/json"
 	"fmt"
 	"io"
+	"math"
 	"strings"
 	"text/tabwriter"
 
-	"boltrisk/model"
 	"boltrisk/model/units"
+	"boltrisk/montecarlo"
 	"boltrisk/montecarlo/scenario"
 )
+
+//go:generate go run ./schemagen
 
 // Caution is printed with every analysis result.
 const Caution = "CAUTION: these results are estimates that depend on the input scatter you described. " +
@@ -20,7 +28,21 @@ const Caution = "CAUTION: these results are estimates that depend on the input s
 	"otherwise qualified engineer; local codes govern."
 
 // SchemaVersion is the version of every JSON document written here.
-const SchemaVersion = 1
+// Version 2: inputs structured, modes an ordered array of objects with key,
+// c.o.v., interval kind, method and evaluations, percentiles with rank
+// errors, no copy of the outer envelope inside a document.
+const SchemaVersion = 2
+
+// Envelope is what every JSON document starts with.
+type Envelope struct {
+	SchemaVersion int    `json:"schema_version"`
+	Kind          string `json:"kind" jsonschema:"enum=nominal,enum=simulate,enum=sweep,enum=spread-limit,enum=compare"`
+	ToolVersion   string `json:"tool_version"`
+}
+
+func envelope(kind, version string) Envelope {
+	return Envelope{SchemaVersion: SchemaVersion, Kind: kind, ToolVersion: version}
+}
 
 // ScenarioInfo identifies the scenario in documents.
 type ScenarioInfo struct {
@@ -35,107 +57,185 @@ func Info(s *scenario.Scenario) ScenarioInfo {
 	return ScenarioInfo{Name: s.Name, Variant: s.Variant, File: s.File, SHA256: s.SHA256}
 }
 
-// InputRow is one echoed input: a label and its value with units (or its
-// distribution), plus where the value came from.
-type InputRow struct {
-	Label  string `json:"label"`
-	Value  string `json:"value"`
-	Source string `json:"source,omitempty"`
+// InputDoc is one input of the joint as documents show it.
+type InputDoc struct {
+	Path      string `json:"path"`
+	Label     string `json:"label"`
+	Dimension string `json:"dimension" jsonschema:"enum=number,enum=fraction,enum=force,enum=length,enum=stress,enum=torque,enum=stiffness"`
+	// Unit of Nominal and of the distribution's parameters (internal SI);
+	// empty for plain numbers and fractions.
+	Unit         string   `json:"unit"`
+	Nominal      float64  `json:"nominal"`
+	PerBolt      bool     `json:"per_bolt"`
+	Distribution *DistDoc `json:"distribution,omitempty"`
+	// SharedBetweenBolts is the share of a per-bolt input's scatter common
+	// to all bolts (their correlation in standard-normal space).
+	SharedBetweenBolts float64 `json:"shared_between_bolts,omitempty"`
+	Source             string  `json:"source,omitempty"`
+	Display            string  `json:"display"` // value or distribution with units, for people
 }
 
-// Inputs echoes the scenario's inputs with units in the chosen system.
-func Inputs(s *scenario.Scenario, sys units.System) []InputRow {
+// DistDoc is a distribution with its parameters in the input's unit.
+type DistDoc struct {
+	Family string `json:"family" jsonschema:"enum=normal,enum=lognormal,enum=uniform,enum=triangular,enum=weibull,enum=truncnormal"`
+	// Parameters of the family: normal mean, sd; lognormal mu_log, sigma_log
+	// (of ln X in the input's unit); uniform min, max; triangular min, mode,
+	// max; weibull shape, scale; truncnormal mean, sd (of the parent), lower,
+	// upper.
+	Parameters map[string]float64 `json:"parameters"`
+	Mean       float64            `json:"mean"`
+	SD         float64            `json:"sd"`
+}
+
+// CorrelationDoc is one Gaussian-copula correlation.
+type CorrelationDoc struct {
+	Between [2]string `json:"between"`
+	Rho     float64   `json:"rho"`
+}
+
+// JointDoc describes the joint beyond its scalar inputs.
+type JointDoc struct {
+	Thread          string           `json:"thread"`
+	Series          string           `json:"series"`
+	Bolts           int              `json:"bolts"`
+	PropertyClass   string           `json:"property_class,omitempty"`
+	StressAreaMM2   float64          `json:"stress_area_mm2"`
+	GripMM          float64          `json:"grip_mm"`
+	Layers          int              `json:"layers"`
+	StiffnessMethod string           `json:"stiffness_method"`
+	Tightening      string           `json:"tightening_method"`
+	Condition       string           `json:"condition,omitempty"`
+	Tool            string           `json:"tool,omitempty"`
+	Criterion       string           `json:"fatigue_criterion"`
+	ShearRule       string           `json:"shear_resistance,omitempty"`
+	Correlations    []CorrelationDoc `json:"correlations,omitempty"`
+}
+
+// internalUnit names the internal unit of a dimension (the unit of JSON values).
+func internalUnit(d units.Dim) string {
+	return map[units.Dim]string{units.Force: "N", units.Length: "mm", units.Stress: "MPa", units.Torque: "N*mm", units.Stiffness: "N/mm"}[d]
+}
+
+// distDoc documents a distribution.
+func distDoc(d *montecarlo.Dist) *DistDoc {
+	p := map[string]float64{}
+	switch d.Kind {
+	case montecarlo.Normal:
+		p["mean"], p["sd"] = d.A, d.B
+	case montecarlo.LogNormal:
+		p["mu_log"], p["sigma_log"] = d.A, d.B
+	case montecarlo.Uniform:
+		p["min"], p["max"] = d.A, d.B
+	case montecarlo.Triangular:
+		p["min"], p["mode"], p["max"] = d.A, d.C, d.B
+	case montecarlo.Weibull:
+		p["shape"], p["scale"] = d.A, d.B
+	case montecarlo.TruncNormal:
+		p["mean"], p["sd"], p["lower"], p["upper"] = d.A, d.B, d.C, d.D
+	}
+	return &DistDoc{Family: d.Kind.String(), Parameters: p, Mean: d.Mean(), SD: d.StdDev()}
+}
+
+// Inputs documents the inputs the reports show for a scenario (its
+// registry's display rules), values and distributions in the system sys
+// for the display strings.
+func Inputs(s *scenario.Scenario, sys units.System) []InputDoc {
+	var out []InputDoc
 	in := s.Inputs()
-	var rows []InputRow
-	add := func(label, value, source string) { rows = append(rows, InputRow{label, value, source}) }
-	val := func(path string) string {
-		dim := scenario.FieldDim(path)
-		f := func(v float64) string { return sys.Format(v, dim) }
-		if v, ok := s.Uncertain(path); ok {
-			return v.Dist.Describe(f)
+	for _, f := range s.Shown() {
+		d := InputDoc{Path: f.Path, Label: f.Label, Dimension: f.Dim.String(), Unit: internalUnit(f.Dim),
+			Nominal: *scenario.FieldPtr(in, f.Path), PerBolt: f.Role&montecarlo.PerBolt != 0,
+			Source: s.Sources[f.Path], Display: s.Describe(f.Path, sys)}
+		if v, ok := s.Uncertain(f.Path); ok {
+			d.Distribution = distDoc(&v.Dist)
+			d.SharedBetweenBolts = v.Shared
 		}
-		return f(*scenario.FieldPtr(in, path))
+		out = append(out, d)
 	}
-	th := in.Thread
-	bolt := fmt.Sprintf("%s (%s), %d bolt", th.Name, th.Series, in.Bolts)
-	if in.Bolts > 1 {
-		bolt += "s"
-	}
-	add("bolt", bolt, "")
-	add("thread", fmt.Sprintf("d %s, P %s, d2 %s, d3 %s, As %s mm²", sys.Format(th.D, units.Length), sys.Format(th.Pitch, units.Length),
-		sys.Format(th.PitchDia, units.Length), sys.Format(th.MinorDia, units.Length), units.Sig(th.StressArea, 4)), "ISO 724 / ASME B1.1 formulas")
-	cls := "given"
-	if s.ClassName != "" {
-		cls = "class " + s.ClassName
-	}
-	add("proof strength", val("bolt.proof_strength"), cls)
-	add("yield strength", val("bolt.yield_strength"), cls)
-	add("tensile strength", val("bolt.tensile_strength"), cls)
-	add("bolt modulus", val("bolt.modulus"), "")
-	add("shank in grip", val("bolt.shank_in_grip"), "")
-	add("bearing / hole dia.", val("bolt.bearing_diameter")+" / "+val("bolt.hole_diameter"), "")
-	var ls []string
-	for i := range in.NLayers {
-		p := fmt.Sprintf("members.layers.%d.", i+1)
-		ls = append(ls, val(p+"thickness")+" @ E "+val(p+"modulus"))
-	}
-	add("members", strings.Join(ls, " + "), in.StiffnessMethod.String()+" method, grip "+sys.Format(in.Grip(), units.Length))
-	if in.MemberStiffness > 0 {
-		add("member stiffness", val("members.stiffness"), "given")
-	}
-	if in.LoadIntroduction > 0 && in.LoadIntroduction != 1 {
-		add("load introduction n", val("members.load_introduction"), "VDI 2230")
-	}
-	src := func(preset, name string) string {
-		if name == "" {
-			return ""
-		}
-		return preset + " " + name
-	}
-	switch in.Method {
-	case model.NutFactorMethod:
-		add("torque", val("tightening.torque"), src("tool", s.ToolName))
-		add("nut factor", val("tightening.nut_factor"), src("condition", s.ConditionName))
-	case model.FrictionMethod:
-		add("torque", val("tightening.torque"), src("tool", s.ToolName))
-		add("thread friction", val("tightening.thread_friction"), src("condition", s.ConditionName))
-		add("head friction", val("tightening.head_friction"), src("condition", s.ConditionName))
-	default:
-		add("preload", val("tightening.preload"), src("tool", s.ToolName))
-	}
-	if in.Embedding > 0 {
-		add("embedding", val("tightening.embedding"), "")
-	}
-	if in.Relaxation > 0 {
-		add("relaxation", val("tightening.relaxation"), "")
-	}
-	add("axial load per bolt", val("loads.axial_min")+" … "+val("loads.axial_max"), "")
+	return out
+}
+
+// Joint documents the joint's description.
+func Joint(s *scenario.Scenario) JointDoc {
+	in := s.Inputs()
+	j := JointDoc{Thread: in.Thread.Name, Series: in.Thread.Series, Bolts: in.Bolts, PropertyClass: s.ClassName,
+		StressAreaMM2: in.Thread.StressArea, GripMM: in.Grip(), Layers: in.NLayers, StiffnessMethod: in.StiffnessMethod.String(),
+		Tightening: in.Method.String(), Condition: s.ConditionName, Tool: s.ToolName, Criterion: in.Criterion.String()}
 	if in.ShearLoad > 0 {
-		add("shear load on joint", val("loads.shear"), fmt.Sprintf("%g shear plane(s), threads in plane: %v", in.ShearPlanes, in.ThreadsInShearPlane))
-		add("plate", fmt.Sprintf("t %s, width %s, e1 %s", val("plate.thickness"), val("plate.width"), val("plate.edge_distance")), in.ShearRule.String()+" resistance")
-		add("plate strengths", val("plate.yield_strength")+" / "+val("plate.tensile_strength"), "yield / tensile")
-		if in.SlipFactor > 0 {
-			add("slip factor", val("plate.slip_factor"), "")
-		}
-	}
-	if in.AxialMax > in.AxialMin {
-		add("endurance strength", val("fatigue.endurance"), s.EnduranceNote)
-		add("fatigue criterion", in.Criterion.String(), "")
+		j.ShearRule = in.ShearRule.String()
 	}
 	for _, c := range s.Problem.Corr {
-		add("correlation", fmt.Sprintf("%s ~ %s: ρ = %g", s.Problem.Vars[c.I].Name, s.Problem.Vars[c.J].Name, c.Rho), "Gaussian copula")
+		j.Correlations = append(j.Correlations, CorrelationDoc{Between: [2]string{s.Problem.Vars[c.I].Name, s.Problem.Vars[c.J].Name}, Rho: c.Rho})
 	}
-	return rows
+	return j
 }
 
-// writeRows writes label/value/source rows aligned.
-func writeRows(w io.Writer, rows []InputRow) {
+// jointLines describes the joint in a few lines of text.
+func jointLines(j JointDoc, sys units.System) []string {
+	bolt := fmt.Sprintf("%s (%s), %d bolt", j.Thread, j.Series, j.Bolts)
+	if j.Bolts > 1 {
+		bolt += "s"
+	}
+	if j.PropertyClass != "" {
+		bolt += ", class " + j.PropertyClass
+	}
+	lines := []string{bolt,
+		fmt.Sprintf("grip %s in %d layer(s), %s stiffness; tightening by %s", sys.Format(j.GripMM, units.Length), j.Layers, j.StiffnessMethod, j.Tightening)}
+	var presets []string
+	if j.Condition != "" {
+		presets = append(presets, "condition "+j.Condition)
+	}
+	if j.Tool != "" {
+		presets = append(presets, "tool "+j.Tool)
+	}
+	if len(presets) > 0 {
+		lines = append(lines, "presets: "+strings.Join(presets, ", "))
+	}
+	for _, c := range j.Correlations {
+		lines = append(lines, fmt.Sprintf("correlation %s ~ %s: ρ = %g (Gaussian copula)", c.Between[0], c.Between[1], c.Rho))
+	}
+	return lines
+}
+
+// WriteJSON writes any document as indented JSON.
+func WriteJSON(w io.Writer, doc any) error {
+	enc := json.NewEncoder(w)
+	enc.SetIndent("", "  ")
+	return enc.Encode(doc)
+}
+
+// title writes the heading of a report.
+func title(w io.Writer, verb string, s *scenario.Scenario) {
+	fmt.Fprintf(w, "boltrisk %s — %s\n", verb, titleOf(s))
+	if s.File != "" {
+		fmt.Fprintf(w, "scenario file %s (sha256 %.12s…)\n", s.File, s.SHA256)
+	}
+}
+
+func titleOf(s *scenario.Scenario) string {
+	t := s.Name
+	if t == "" {
+		t = "(unnamed scenario)"
+	}
+	if s.Variant != "" {
+		t += " — " + s.Variant
+	}
+	return t
+}
+
+// writeInputs writes the joint and its inputs aligned.
+func writeInputs(w io.Writer, j JointDoc, inputs []InputDoc, sys units.System) {
+	fmt.Fprintln(w, "\nJoint")
+	for _, l := range jointLines(j, sys) {
+		fmt.Fprintln(w, "  "+l)
+	}
+	fmt.Fprintln(w, "\nInputs")
 	tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', 0)
-	for _, r := range rows {
+	for _, r := range inputs {
 		if r.Source != "" {
-			fmt.Fprintf(tw, "  %s\t%s\t(%s)\n", r.Label, r.Value, r.Source)
+			fmt.Fprintf(tw, "  %s\t%s\t(%s)\n", r.Label, r.Display, r.Source)
 		} else {
-			fmt.Fprintf(tw, "  %s\t%s\n", r.Label, r.Value)
+			fmt.Fprintf(tw, "  %s\t%s\n", r.Label, r.Display)
 		}
 	}
 	tw.Flush()
@@ -156,4 +256,44 @@ func WriteCaution(w io.Writer) {
 		line += word
 	}
 	fmt.Fprintln(w, line)
+}
+
+func writeWarnings(w io.Writer, ws []string) {
+	if len(ws) == 0 {
+		return
+	}
+	fmt.Fprintln(w, "\nWarnings")
+	for _, s := range ws {
+		fmt.Fprintln(w, "  - "+s)
+	}
+}
+
+// SFCap stands for an infinite safety factor (a mode with no demand, such
+// as proof with neither preload nor load) in documents: JSON has no infinity.
+const SFCap = 1e9
+
+// FiniteSF caps a safety factor at SFCap and maps NaN to 0.
+func FiniteSF(v float64) float64 {
+	switch {
+	case math.IsNaN(v):
+		return 0
+	case v > SFCap:
+		return SFCap
+	}
+	return v
+}
+
+func fmtSF(v float64) string {
+	if math.IsInf(v, 1) || v > 1e6 {
+		return "> 1e6"
+	}
+	return fmt.Sprintf("%.3f", v)
+}
+
+// finite returns v, or nil for a value JSON cannot hold (an infinite c.o.v.).
+func finite(v float64) *float64 {
+	if math.IsInf(v, 0) || math.IsNaN(v) {
+		return nil
+	}
+	return &v
 }

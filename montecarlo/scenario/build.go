@@ -94,14 +94,14 @@ func (b *builder) registry() error {
 				continue
 			}
 		}
-		v, d, _, err := b.p.value(b.r, f)
+		v, d, shared, err := b.p.value(b.r, f)
 		if err != nil {
 			return err
 		}
 		*f.ptr(b.in) = v
 		b.given[f.path] = true
 		if d != nil {
-			b.s.Problem.Vars = append(b.s.Problem.Vars, montecarlo.Var{Name: f.path, Dist: *d, Role: f.role, Field: f.ptr})
+			b.s.Problem.Vars = append(b.s.Problem.Vars, montecarlo.Var{Name: f.path, Dist: *d, Role: f.role, Field: f.ptr, Shared: shared})
 		}
 	}
 	return nil

@@ -13,26 +13,29 @@ import (
 // value reads a registry field: a quantity with its unit, or a distribution.
 // It returns the nominal value (the distribution's mean) and the distribution
 // (nil for a fixed value).
-func (p *parser) value(r rawDoc, f field) (float64, *montecarlo.Dist, int, error) {
+func (p *parser) value(r rawDoc, f field) (float64, *montecarlo.Dist, float64, error) {
 	n := r.vals[f.path]
 	if n.Kind == yaml.ScalarNode {
 		v, err := units.Parse(n.Value, f.dim)
 		if err != nil {
-			return 0, nil, n.Line, p.errf(n.Line, f.path, n.Value, "%v", err)
+			return 0, nil, 0, p.errf(n.Line, f.path, n.Value, "%v", err)
 		}
-		return v, nil, n.Line, nil
+		return v, nil, 0, nil
 	}
 	if n.Kind != yaml.MappingNode {
-		return 0, nil, n.Line, p.errf(n.Line, f.path, "", "expected a value with its unit or a distribution {dist: …, mean: …, cov: …}")
+		return 0, nil, 0, p.errf(n.Line, f.path, "", "expected a value with its unit or a distribution {dist: …, mean: …, cov: …}")
 	}
-	d, err := p.dist(n, f.path, f.dim)
+	d, shared, err := p.dist(n, f.path, f.dim)
 	if err != nil {
-		return 0, nil, n.Line, err
+		return 0, nil, 0, err
 	}
-	return d.Mean(), &d, n.Line, nil
+	if shared > 0 && f.role&perBolt == 0 {
+		return 0, nil, 0, p.errf(n.Line, f.path+".shared", "", "only an input that each bolt draws (assembly scatter) has a part shared between bolts; %s is one value for the whole joint", f.path)
+	}
+	return d.Mean(), &d, shared, nil
 }
 
-var distKeys = []string{"dist", "mean", "sd", "cov", "nominal", "tolerance", "coverage", "min", "max", "mode", "shape", "scale", "lower", "upper"}
+var distKeys = []string{"dist", "mean", "sd", "cov", "nominal", "tolerance", "coverage", "min", "max", "mode", "shape", "scale", "lower", "upper", "shared"}
 
 var familyNames = []string{"normal", "lognormal", "uniform", "triangular", "weibull", "truncnormal"}
 
@@ -46,8 +49,9 @@ type distReader struct {
 	vals map[string]*yaml.Node
 }
 
-// dist reads a distribution mapping.
-func (p *parser) dist(n *yaml.Node, path string, dim units.Dim) (montecarlo.Dist, error) {
+// dist reads a distribution mapping and its shared part (the correlation
+// between bolts, 0 when not given).
+func (p *parser) dist(n *yaml.Node, path string, dim units.Dim) (montecarlo.Dist, float64, error) {
 	dr := &distReader{p: p, n: n, path: path, dim: dim, vals: map[string]*yaml.Node{}}
 	err := p.pairs(n, path, func(k, v *yaml.Node) error {
 		if !slices.Contains(distKeys, k.Value) {
@@ -60,7 +64,16 @@ func (p *parser) dist(n *yaml.Node, path string, dim units.Dim) (montecarlo.Dist
 		return nil
 	})
 	if err != nil {
-		return montecarlo.Dist{}, err
+		return montecarlo.Dist{}, 0, err
+	}
+	shared := 0.0
+	if v, ok := dr.vals["shared"]; ok {
+		x, err := units.Parse(v.Value, units.Fraction)
+		if err != nil || !(x >= 0 && x < 1) {
+			return montecarlo.Dist{}, 0, p.errf(v.Line, path+".shared", v.Value, "the share of the scatter common to all bolts (their correlation) must lie within 0 … 1, e.g. 60%% (1 would be one value for all bolts: give the input once for the joint instead)")
+		}
+		shared = x
+		delete(dr.vals, "shared")
 	}
 	kindName := "normal"
 	if v, ok := dr.vals["dist"]; ok {
@@ -68,16 +81,19 @@ func (p *parser) dist(n *yaml.Node, path string, dim units.Dim) (montecarlo.Dist
 	}
 	kind, err := montecarlo.ParseKind(kindName)
 	if err != nil || kind == montecarlo.Fixed {
-		return montecarlo.Dist{}, p.errf(n.Line, path+".dist", kindName, "allowed: %s%s", strings.Join(familyNames, ", "), suggest(kindName, familyNames))
+		return montecarlo.Dist{}, 0, p.errf(n.Line, path+".dist", kindName, "allowed: %s%s", strings.Join(familyNames, ", "), suggest(kindName, familyNames))
 	}
 	dr.kind = kind
+	var d montecarlo.Dist
 	switch kind {
 	case montecarlo.Normal, montecarlo.LogNormal, montecarlo.TruncNormal:
-		return dr.normalFamily()
+		d, err = dr.normalFamily()
 	case montecarlo.Uniform, montecarlo.Triangular:
-		return dr.bounded()
+		d, err = dr.bounded()
+	default:
+		d, err = dr.weibull()
 	}
-	return dr.weibull()
+	return d, shared, err
 }
 
 func (dr *distReader) has(k string) bool { _, ok := dr.vals[k]; return ok }

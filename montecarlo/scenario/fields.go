@@ -45,7 +45,16 @@ func nonZero(get func(*model.Inputs) *float64) func(*model.Inputs) bool {
 	return func(in *model.Inputs) bool { return *get(in) != 0 }
 }
 
-var fields = append(baseFields(), layerFields()...)
+// fields is the registry in report order: the bolt, the layers, then the
+// rest of the joint.
+var fields = func() []field {
+	base := baseFields()
+	i := 0
+	for base[i].path != "members.stiffness" {
+		i++
+	}
+	return append(append(base[:i:i], layerFields()...), base[i:]...)
+}()
 
 func baseFields() []field {
 	ptr := func(f func(in *model.Inputs) *float64) func(*model.Inputs) *float64 { return f }

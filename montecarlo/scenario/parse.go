@@ -46,7 +46,7 @@ var sectionKeys = func() map[string][]string {
 		"loads":      {"shear_planes", "threads_in_shear_plane"},
 		"plate":      {"material", "resistance", "bolts_across"},
 		"fatigue":    {"criterion", "endurance_source"},
-		"study":      {"samples", "seed", "confidence", "target"},
+		"study":      {"samples", "seed", "confidence", "precision", "target_probability", "target"},
 	}
 	for _, f := range fields {
 		sec, key, _ := strings.Cut(f.path, ".")

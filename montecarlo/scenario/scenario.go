@@ -27,7 +27,11 @@ type Study struct {
 	Seed       uint64
 	SeedSet    bool
 	Confidence float64
-	Target     float64
+	// Precision is the stopping rule: the target coefficient of variation
+	// of every reported probability.
+	Precision float64
+	// TargetProbability is the failure probability a design must meet.
+	TargetProbability float64
 }
 
 // Scenario is a loaded, validated joint with its uncertain inputs.

@@ -11,6 +11,6 @@ trap 'rm -rf "$tmp"' EXIT
 cd "$here"
 go build -o "$tmp/boltrisk" ./cmd/boltrisk
 for n in 1e6 1e7 1e8; do
-  kb=$( { /usr/bin/time -f '%M' "$tmp/boltrisk" simulate --example r1 --samples $n --quiet --json >/dev/null; } 2>&1 | tail -1)
+  kb=$( { /usr/bin/time -f '%M' "$tmp/boltrisk" simulate --example bench-m12 --samples $n --quiet --json >/dev/null; } 2>&1 | tail -1)
   echo "samples $n: peak RSS $((kb / 1024)) MiB"
 done

@@ -26,8 +26,8 @@ median() { tr ' ' '\n' | grep . | sort -g | awk '{a[NR]=$1} END {print a[int((NR
 ours3=() oursall=() loop=() numpy=()
 echo "R1 at $n samples, M samples/s on $(nproc) cores; round: R1 modes, all modes, goloop, NumPy"
 for r in $(seq "$rounds"); do
-	ours3+=("$("$tmp/boltrisk" simulate --example r1 --samples $n --modes fatigue,separation,proof --json 2>&1 >/dev/null | rate)")
-	oursall+=("$("$tmp/boltrisk" simulate --example r1 --samples $n --json 2>&1 >/dev/null | rate)")
+	ours3+=("$("$tmp/boltrisk" simulate --example bench-m12 --samples $n --modes fatigue,separation,proof --json 2>&1 >/dev/null | rate)")
+	oursall+=("$("$tmp/boltrisk" simulate --example bench-m12 --samples $n --json 2>&1 >/dev/null | rate)")
 	loop+=("$("$tmp/goloop/goloop" $n | rate)")
 	numpy+=("$(/usr/bin/python3 "$bench/r1_numpy.py" $n | rate)")
 	echo "  round $r: ${ours3[-1]}  ${oursall[-1]}  ${loop[-1]}  ${numpy[-1]}"

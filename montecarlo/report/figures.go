@@ -2,10 +2,7 @@ package report
 
 import (
 	"fmt"
-	"io"
 	"math"
-	"os"
-	"path/filepath"
 	"strings"
 	"time"
 
@@ -14,7 +11,10 @@ import (
 	"boltrisk/model"
 	"boltrisk/model/units"
 	"boltrisk/montecarlo"
+	"boltrisk/montecarlo/interval"
+	"boltrisk/montecarlo/quantile"
 	"boltrisk/montecarlo/scenario"
+	"boltrisk/montecarlo/study"
 	"boltrisk/plots"
 )
 
@@ -23,10 +23,11 @@ type Provenance struct {
 	Version string
 	Command string
 	Seed    uint64
-	Samples int64
-	Workers int
-	Date    time.Time
-	Inputs  []*scenario.Scenario
+	// Requested and valid samples, and the workers that ran.
+	Requested, Samples int64
+	Workers            int
+	Date               time.Time
+	Inputs             []*scenario.Scenario
 }
 
 func (p Provenance) rows() [][2]string {
@@ -34,7 +35,7 @@ func (p Provenance) rows() [][2]string {
 		{"tool", "boltrisk " + p.Version},
 		{"command", p.Command},
 		{"seed", fmt.Sprint(p.Seed)},
-		{"samples", fmt.Sprint(p.Samples)},
+		{"samples", fmt.Sprintf("%d requested, %d valid", p.Requested, p.Samples)},
 		{"workers", fmt.Sprintf("%d (results do not depend on it)", p.Workers)},
 		{"date", p.Date.UTC().Format(time.RFC3339)},
 	}
@@ -53,9 +54,29 @@ func (p Provenance) rows() [][2]string {
 	return rows
 }
 
-// Hist converts a runner histogram for plotting.
-func Hist(h *montecarlo.Histogram) plots.Hist {
-	return plots.Hist{Lo: h.Lo, Hi: h.Hi, Counts: h.Counts, Under: h.Under, Over: h.Over}
+// displayBins is the number of bars of a histogram picture.
+const displayBins = 400
+
+// Hist regroups a sketch into equal display bins over its central 99.9 %
+// for pictures; the values outside count as below and above.
+func Hist(h *quantile.Sketch) plots.Hist {
+	n := float64(h.Total())
+	if n == 0 {
+		return plots.Hist{Lo: 0, Hi: 1, Counts: make([]float64, displayBins)}
+	}
+	lo, hi := h.Quantile(0.0005).Value, h.Quantile(0.9995).Value
+	if !(hi > lo) {
+		lo, hi = lo-math.Max(math.Abs(lo)*1e-3, 1e-9), hi+math.Max(math.Abs(hi)*1e-3, 1e-9)
+	}
+	out := plots.Hist{Lo: lo, Hi: hi, Counts: make([]float64, displayBins)}
+	in := 0.0
+	for i, b := range h.Bars(lo, hi, displayBins) {
+		out.Counts[i] = b.Count
+		in += b.Count
+	}
+	out.Under = math.Min(h.FractionBelow(lo)*n, n-in)
+	out.Over = math.Max(n-in-out.Under, 0)
+	return out
 }
 
 func figure(p *plot.Plot, file, caption string) (Figure, error) {
@@ -69,9 +90,9 @@ func figure(p *plot.Plot, file, caption string) (Figure, error) {
 // PreloadFigure draws the residual preload of every bolt with the preload
 // window marked and the share of samples outside it.
 func PreloadFigure(s *scenario.Scenario, r *montecarlo.Result, sys units.System) (Figure, plots.HistSpec, error) {
-	w := model.PreloadWindow(s.Inputs())
+	w := r.Nominal.Window
 	unit, scale := forceUnit(sys)
-	h := &r.Q[montecarlo.QPreload]
+	h := &r.Quantities[montecarlo.QPreload].Sketch
 	markers := []plots.Marker{
 		{X: w.ProofMax, Label: "greatest below proof load " + sys.Format(w.ProofMax, units.Force)},
 		{X: w.AssemblyMax, Label: "greatest before yield in assembly " + sys.Format(w.AssemblyMax, units.Force) + " (on assembly preload)"},
@@ -128,17 +149,6 @@ func forceUnit(sys units.System) (string, float64) {
 	return "kN", f * 1000
 }
 
-func titleOf(s *scenario.Scenario) string {
-	t := s.Name
-	if s.Variant != "" {
-		t += " — " + s.Variant
-	}
-	if t == "" {
-		t = "scenario"
-	}
-	return t
-}
-
 // SafetyFactorFigures draws one safety-factor histogram per reported mode,
 // with the failure line at 1.
 func SafetyFactorFigures(s *scenario.Scenario, r *montecarlo.Result) ([]Figure, error) {
@@ -147,9 +157,9 @@ func SafetyFactorFigures(s *scenario.Scenario, r *montecarlo.Result) ([]Figure, 
 		spec := plots.HistSpec{
 			Title:   fmt.Sprintf("Safety factor: %s (%s)", strings.ToLower(m.Mode.Title()), titleOf(s)),
 			XLabel:  "safety factor (capacity / demand)",
-			Hist:    Hist(&m.SF),
+			Hist:    Hist(&m.SF.Sketch),
 			Markers: []plots.Marker{{X: 1, Label: "failure at 1"}},
-			Notes:   []string{fmt.Sprintf("failures: %d of %d samples", m.Interval.Failures, m.Interval.Samples)},
+			Notes:   []string{fmt.Sprintf("failures: %d of %d samples", m.Estimate.Failures, m.Estimate.Samples)},
 		}
 		if r.Binned < r.Samples {
 			spec.Notes = append(spec.Notes, binnedBars(r))
@@ -171,35 +181,37 @@ func SafetyFactorFigures(s *scenario.Scenario, r *montecarlo.Result) ([]Figure, 
 }
 
 // Curves converts a sweep into plot curves, one per mode and one for any mode.
-func Curves(sw *montecarlo.Sweep) []plots.Curve {
+func Curves(sw *study.Sweep) []plots.Curve {
 	if len(sw.Steps) == 0 {
 		return nil
 	}
 	var out []plots.Curve
-	add := func(name string, get func(*montecarlo.Result) montecarlo.Interval) {
+	add := func(name string, get func(*montecarlo.Result) interval.Estimate) {
 		c := plots.Curve{Name: name}
 		for _, st := range sw.Steps {
+			if st.TooFewValid {
+				continue
+			}
 			iv := get(st.Result)
 			c.X = append(c.X, st.X)
 			c.P, c.Lo, c.Hi = append(c.P, iv.P), append(c.Lo, iv.Lo), append(c.Hi, iv.Hi)
-			c.UpperOnly = append(c.UpperOnly, iv.UpperOnly)
+			c.UpperOnly = append(c.UpperOnly, iv.UpperOnly())
 		}
 		out = append(out, c)
 	}
 	for i, m := range sw.Steps[0].Result.Modes {
-		i := i
-		add(m.Mode.Key(), func(r *montecarlo.Result) montecarlo.Interval { return r.Modes[i].Interval })
+		add(m.Mode.Title(), func(r *montecarlo.Result) interval.Estimate { return r.Modes[i].Estimate })
 	}
-	add("any mode", func(r *montecarlo.Result) montecarlo.Interval { return r.Any })
+	add("any mode", func(r *montecarlo.Result) interval.Estimate { return r.Any })
 	return out
 }
 
 // CurveFigure draws the reliability curve of a sweep.
-func CurveFigure(s *scenario.Scenario, sw *montecarlo.Sweep, target float64, sys units.System, file, title string) (Figure, plots.CurveSpec, error) {
-	spec := plots.CurveSpec{Title: title + " (" + titleOf(s) + ")", Curves: Curves(sw), Target: target, Scale: 1}
+func CurveFigure(s *scenario.Scenario, sw *study.Sweep, sys units.System, file, title string) (Figure, plots.CurveSpec, error) {
+	spec := plots.CurveSpec{Title: title + " (" + titleOf(s) + ")", Curves: Curves(sw), Scale: 1}
 	v := sw.Vary
 	switch v.Kind {
-	case montecarlo.VaryInput:
+	case study.Input:
 		dim := scenario.FieldDim(v.Path)
 		u, f := sys.Unit(dim)
 		if dim == units.Force {
@@ -210,19 +222,19 @@ func CurveFigure(s *scenario.Scenario, sw *montecarlo.Sweep, target float64, sys
 		if u == "" {
 			spec.XLabel = "nominal " + v.Path
 		}
-	case montecarlo.VaryLoad:
+	case study.Load:
 		spec.XLabel = "multiplier on the service loads (1 = scenario)"
-	case montecarlo.VarySpread:
+	case study.Spread:
 		spec.XLabel = "multiplier on the scatter of " + v.Path + " (1 = scenario)"
 	}
 	caption := "Failure probability of each mode (log scale) with its confidence band; downward triangles are upper bounds where no sample failed."
-	if target > 0 {
-		w := montecarlo.FindWindow(sw, target, false)
+	if w := sw.Window; w != nil {
+		spec.Target = w.Target
 		if w.Found {
 			spec.Window = [2]float64{w.Lo, w.Hi}
-			caption += fmt.Sprintf(" The shaded window meets the target %.3g.", target)
+			caption += fmt.Sprintf(" The shaded window meets the target %.3g.", w.Target)
 		} else {
-			caption += fmt.Sprintf(" No value in the range meets the target %.3g.", target)
+			caption += fmt.Sprintf(" No value in the range meets the target %.3g.", w.Target)
 		}
 	}
 	p, _, err := plots.CurvePlot(spec)
@@ -237,9 +249,20 @@ func CurveFigure(s *scenario.Scenario, sw *montecarlo.Sweep, target float64, sys
 // per-mode probabilities side by side.
 func CompareFigures(names []string, pr *montecarlo.Paired, sys units.System) ([]Figure, error) {
 	unit, scale := forceUnit(sys)
+	// Common display bins over every variant's central range.
+	lo, hi := math.Inf(1), math.Inf(-1)
+	for _, r := range pr.Variants {
+		h := Hist(&r.Quantities[montecarlo.QPreload].Sketch)
+		lo, hi = math.Min(lo, h.Lo), math.Max(hi, h.Hi)
+	}
 	var ov []plots.Overlay
 	for i, r := range pr.Variants {
-		ov = append(ov, plots.Overlay{Name: names[i], Hist: Hist(&r.Q[montecarlo.QPreload])})
+		sk := &r.Quantities[montecarlo.QPreload].Sketch
+		h := plots.Hist{Lo: lo, Hi: hi, Counts: make([]float64, displayBins)}
+		for j, b := range sk.Bars(lo, hi, displayBins) {
+			h.Counts[j] = b.Count
+		}
+		ov = append(ov, plots.Overlay{Name: names[i], Hist: h})
 	}
 	p, err := plots.OverlayPlot("Residual preload per bolt, by variant", "residual preload ("+unit+")", scale, 60, ov)
 	if err != nil {
@@ -250,19 +273,18 @@ func CompareFigures(names []string, pr *montecarlo.Paired, sys units.System) ([]
 		return nil, err
 	}
 	var groups []plots.Group
-	add := func(name string, get func(*montecarlo.Result) montecarlo.Interval) {
+	add := func(name string, get func(*montecarlo.Result) interval.Estimate) {
 		g := plots.Group{Name: name}
 		for _, r := range pr.Variants {
 			iv := get(r)
-			g.P, g.Lo, g.Hi, g.UpperOnly = append(g.P, iv.P), append(g.Lo, iv.Lo), append(g.Hi, iv.Hi), append(g.UpperOnly, iv.UpperOnly)
+			g.P, g.Lo, g.Hi, g.UpperOnly = append(g.P, iv.P), append(g.Lo, iv.Lo), append(g.Hi, iv.Hi), append(g.UpperOnly, iv.UpperOnly())
 		}
 		groups = append(groups, g)
 	}
 	for i, m := range pr.Modes {
-		i := i
-		add(m.Key(), func(r *montecarlo.Result) montecarlo.Interval { return r.Modes[i].Interval })
+		add(m.Title(), func(r *montecarlo.Result) interval.Estimate { return r.Modes[i].Estimate })
 	}
-	add("any", func(r *montecarlo.Result) montecarlo.Interval { return r.Any })
+	add("any mode", func(r *montecarlo.Result) interval.Estimate { return r.Any })
 	p, err = plots.GroupPlot("Failure probability by mode and variant", names, groups)
 	if err != nil {
 		return nil, err
@@ -272,44 +294,4 @@ func CompareFigures(names []string, pr *montecarlo.Paired, sys units.System) ([]
 		return nil, err
 	}
 	return []Figure{f1, f2}, nil
-}
-
-// WriteOutputs writes the review's pictures, report.md and report.html into
-// dir (created if missing). It refuses to overwrite any of the protected
-// input files and writes every file atomically.
-func WriteOutputs(dir string, r *Review, protect []string) ([]string, error) {
-	if err := os.MkdirAll(dir, 0o755); err != nil {
-		return nil, fmt.Errorf("cannot create output folder: %w", err)
-	}
-	type out struct {
-		name  string
-		write func(io.Writer) error
-	}
-	var outs []out
-	for _, f := range r.Figures {
-		f := f
-		outs = append(outs, out{f.File, func(w io.Writer) error { _, err := w.Write(f.PNG); return err }})
-	}
-	outs = append(outs, out{"report.md", r.WriteMarkdown}, out{"report.html", r.WriteHTML})
-	for _, o := range outs {
-		p := filepath.Join(dir, o.name)
-		st, err := os.Stat(p)
-		if err != nil {
-			continue
-		}
-		for _, in := range protect {
-			if ist, err := os.Stat(in); err == nil && os.SameFile(st, ist) {
-				return nil, fmt.Errorf("refusing to write %s: it is the input file %s", p, in)
-			}
-		}
-	}
-	var written []string
-	for _, o := range outs {
-		p := filepath.Join(dir, o.name)
-		if err := plots.WriteAtomic(p, o.write); err != nil {
-			return written, err
-		}
-		written = append(written, p)
-	}
-	return written, nil
 }
