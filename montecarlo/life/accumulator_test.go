@@ -1,0 +1,133 @@
+package life
+
+import (
+	"math"
+	"math/rand/v2"
+	"slices"
+	"testing"
+)
+
+func TestGrid(t *testing.T) {
+	t.Parallel()
+	p := DefaultGrid.Points()
+	if len(p) != 201 || p[0] != 1e2 || p[200] != 1e12 || p[80] != 1e6 || p[20] != 1e3 {
+		t.Errorf("default grid: %d points, %g … %g, p[80] = %g", len(p), p[0], p[len(p)-1], p[80])
+	}
+	if !slices.IsSorted(p) {
+		t.Error("grid not increasing")
+	}
+	near(t, "resolution", DefaultGrid.Resolution(), 1.1220184543019633, 1e-15) // 10^(1/20) (computed)
+	near(t, "p[94]", p[94], math.Pow(10, 6.7), 1e-15)
+	for _, g := range []Grid{{2, 2, 10}, {-1, 5, 10}, {2, 31, 10}, {2, 12, 0}, {2, 12, 1001}} {
+		if g.Validate() == nil {
+			t.Errorf("grid %+v accepted", g)
+		}
+	}
+	if _, err := NewAccumulator(DefaultGrid, 0); err == nil {
+		t.Error("design life 0 accepted")
+	}
+	if _, err := NewAccumulator(DefaultGrid, math.Inf(1)); err == nil {
+		t.Error("design life +Inf accepted")
+	}
+}
+
+// Lives at, just above and just below grid points land in the right cells,
+// and the counts at grid points and at the design life are exact.
+func TestAccumulatorCells(t *testing.T) {
+	t.Parallel()
+	a := mustAcc(t, DefaultGrid, 5e5)
+	p := a.Points()
+	lives := []float64{0, 50, 1e2, math.Nextafter(1e2, 2e2), 1e6, math.Nextafter(1e6, 0), math.Nextafter(1e6, 2e6),
+		p[57], math.Nextafter(p[57], 0), math.Nextafter(p[57], 1e12), 5e5, math.Nextafter(5e5, 1e6), 1e12, 2e12, math.Inf(1), math.Inf(1)}
+	for _, l := range lives {
+		a.Add(l)
+	}
+	if a.N() != int64(len(lives)) || a.Failures() != int64(len(lives)-2) {
+		t.Errorf("N %d, failures %d", a.N(), a.Failures())
+	}
+	for j, g := range p {
+		var want int64
+		for _, l := range lives {
+			if l <= g {
+				want++
+			}
+		}
+		if got := a.FailuresBy(j); got != want {
+			t.Errorf("lives ≤ %g: %d, want %d", g, got, want)
+		}
+	}
+	var want int64
+	for _, l := range lives {
+		if l <= 5e5 {
+			want++
+		}
+	}
+	if a.FailuresByDesign() != want {
+		t.Errorf("lives ≤ design life: %d, want %d", a.FailuresByDesign(), want)
+	}
+	defer func() {
+		if recover() == nil {
+			t.Error("Add(NaN) did not panic")
+		}
+	}()
+	a.Add(math.NaN())
+}
+
+// Accumulators filled from any split of the samples and merged in any
+// order are identical (integer counts).
+func TestMergeAnyOrder(t *testing.T) {
+	t.Parallel()
+	r := rand.New(rand.NewPCG(7, 11))
+	lives := make([]float64, 20000)
+	for i := range lives {
+		if r.Float64() < 0.2 {
+			lives[i] = math.Inf(1)
+		} else {
+			lives[i] = math.Exp(13 + 2*r.NormFloat64())
+		}
+	}
+	whole := mustAcc(t, DefaultGrid, 3e5)
+	for _, l := range lives {
+		whole.Add(l)
+	}
+	parts := make([]*Accumulator, 7)
+	for i := range parts {
+		parts[i] = mustAcc(t, DefaultGrid, 3e5)
+	}
+	for i, l := range lives {
+		parts[(i*31)%7].Add(l)
+	}
+	for _, order := range [][]int{{0, 1, 2, 3, 4, 5, 6}, {6, 5, 4, 3, 2, 1, 0}, {3, 0, 6, 1, 5, 2, 4}} {
+		m := mustAcc(t, DefaultGrid, 3e5)
+		for _, i := range order {
+			m.Merge(parts[i])
+		}
+		if !m.Equal(whole) {
+			t.Errorf("merge order %v differs from the single accumulator", order)
+		}
+	}
+	whole.Reset()
+	if whole.N() != 0 || whole.FailuresBy(200) != 0 {
+		t.Error("Reset left counts")
+	}
+}
+
+func TestNoAllocationsAdd(t *testing.T) {
+	a := mustAcc(t, DefaultGrid, 1e6)
+	x := 1.0
+	if n := testing.AllocsPerRun(10000, func() { x *= 1.37; a.Add(x) }); n != 0 {
+		t.Errorf("Add: %g allocations, want 0", n)
+	}
+}
+
+func BenchmarkAccumulatorAdd(b *testing.B) {
+	a := mustAcc(b, DefaultGrid, 1e6)
+	r := rand.New(rand.NewPCG(1, 2))
+	lives := make([]float64, 1024)
+	for i := range lives {
+		lives[i] = math.Exp(13 + 2*r.NormFloat64())
+	}
+	for i := 0; b.Loop(); i++ {
+		a.Add(lives[i&1023])
+	}
+}
