@@ -10,14 +10,18 @@ import (
 func TestGrid(t *testing.T) {
 	t.Parallel()
 	p := DefaultGrid.Points()
-	if len(p) != 201 || p[0] != 1e2 || p[200] != 1e12 || p[80] != 1e6 || p[20] != 1e3 {
-		t.Errorf("default grid: %d points, %g … %g, p[80] = %g", len(p), p[0], p[len(p)-1], p[80])
+	if len(p) != 1001 || p[0] != 1e2 || p[1000] != 1e12 || p[400] != 1e6 || p[100] != 1e3 {
+		t.Errorf("default grid: %d points, %g … %g, p[400] = %g", len(p), p[0], p[len(p)-1], p[400])
 	}
 	if !slices.IsSorted(p) {
 		t.Error("grid not increasing")
 	}
-	near(t, "resolution", DefaultGrid.Resolution(), 1.1220184543019633, 1e-15) // 10^(1/20) (computed)
-	near(t, "p[94]", p[94], math.Pow(10, 6.7), 1e-15)
+	near(t, "resolution", DefaultGrid.Resolution(), 1.023292992280754, 1e-15) // 10^(1/100) (computed)
+	near(t, "p[470]", p[470], math.Pow(10, 6.7), 1e-15)
+	coarse := Grid{MinExp: 2, MaxExp: 12, PerDecade: 20}.Points()
+	if len(coarse) != 201 || coarse[80] != 1e6 {
+		t.Errorf("20 per decade: %d points, p[80] = %g", len(coarse), coarse[80])
+	}
 	for _, g := range []Grid{{2, 2, 10}, {-1, 5, 10}, {2, 31, 10}, {2, 12, 0}, {2, 12, 1001}} {
 		if g.Validate() == nil {
 			t.Errorf("grid %+v accepted", g)
@@ -107,7 +111,7 @@ func TestMergeAnyOrder(t *testing.T) {
 		}
 	}
 	whole.Reset()
-	if whole.N() != 0 || whole.FailuresBy(200) != 0 {
+	if whole.N() != 0 || whole.FailuresBy(1000) != 0 {
 		t.Error("Reset left counts")
 	}
 }

@@ -9,8 +9,8 @@
 // A Monte Carlo driver computes one life per sample (cycles to failure, +Inf
 // when the sample never fails, e.g. below the endurance limit) and calls
 // [Accumulator.Add], which does not allocate. Lives are counted in the cells
-// of a fixed [Grid] (default 10²…10¹² cycles, 20 points per decade, a step
-// of 10^(1/20) = 1.122); the count of lives ≤ the design life is kept
+// of a fixed [Grid] (default 10²…10¹² cycles, 100 points per decade, a
+// step of 10^(1/100) = 1.0233); the count of lives ≤ the design life is kept
 // exactly. Counts are integers, so accumulators of any split of the samples
 // merged in any order ([Accumulator.Merge]) are identical.
 //
