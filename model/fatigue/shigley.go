@@ -145,6 +145,8 @@ func (s Shigley) SpectrumLife(c Cycle) (Life, error) { return s.Life(c) }
 
 // Damage returns the Palmgren–Miner damage of one pass of blocks; see
 // [Damage]. lives, if not nil, receives each row's life (len ≥ len(blocks)).
+// A row flagged LowCycleClamp counts with N = 10³, which understates its
+// damage: check Damage.Rules.
 func (s Shigley) Damage(blocks []Block, lives []Life) (Damage, error) {
 	var d Damage
 	for i := range blocks {

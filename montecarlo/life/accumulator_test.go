@@ -5,6 +5,8 @@ import (
 	"math/rand/v2"
 	"slices"
 	"testing"
+
+	"boltrisk/model/fatigue"
 )
 
 func TestGrid(t *testing.T) {
@@ -133,5 +135,33 @@ func BenchmarkAccumulatorAdd(b *testing.B) {
 	}
 	for i := 0; b.Loop(); i++ {
 		a.Add(lives[i&1023])
+	}
+}
+
+// One Monte Carlo sample of the life chain: a sampled strength factor, the
+// VDI 2230-1 life at σa = 60 MPa and the count; it allocates nothing.
+func BenchmarkSampleLife(b *testing.B) {
+	a := mustAcc(b, DefaultGrid, 5e5)
+	v, _ := fatigue.NewVDI2230(12, fatigue.RolledBeforeHeatTreatment, 0)
+	src := rand.New(rand.NewPCG(1, 2))
+	c := fatigue.Cycle{Amplitude: 60}
+	for b.Loop() {
+		s, _ := v.Scaled(math.Exp(0.1 * src.NormFloat64()))
+		l, _ := s.Life(c)
+		a.Add(l.Cycles)
+	}
+}
+
+func TestNoAllocationsSample(t *testing.T) {
+	a := mustAcc(t, DefaultGrid, 5e5)
+	v, _ := fatigue.NewVDI2230(12, fatigue.RolledBeforeHeatTreatment, 0)
+	src := rand.New(rand.NewPCG(1, 2))
+	c := fatigue.Cycle{Amplitude: 60}
+	if n := testing.AllocsPerRun(10000, func() {
+		s, _ := v.Scaled(math.Exp(0.1 * src.NormFloat64()))
+		l, _ := s.Life(c)
+		a.Add(l.Cycles)
+	}); n != 0 {
+		t.Errorf("sample: %g allocations, want 0", n)
 	}
 }

@@ -168,7 +168,8 @@ func (a *Accumulator) BLife(p, conf float64) (BLife, error) {
 	if a.n == 0 {
 		return BLife{}, fmt.Errorf("life: no lives counted")
 	}
-	b := BLife{P: p, Confidence: conf, Rank: int64(math.Ceil(p * float64(a.n)))}
+	// ⌈p·n⌉, ignoring the rounding of p·n (0.07·100 = 7.000000000000001)
+	b := BLife{P: p, Confidence: conf, Rank: int64(math.Ceil(p*float64(a.n) - 1e-9))}
 	if b.Rank < 1 {
 		b.Rank = 1
 	}

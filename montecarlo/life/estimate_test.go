@@ -144,6 +144,17 @@ func TestBLifeStatus(t *testing.T) {
 	if des.Count != 50 {
 		t.Errorf("design failures %+v", des)
 	}
+	// ⌈p·n⌉ with p·n rounded up in floating point: 0.07·100 → rank 7
+	if b, _ := a.BLife(0.07, 0.9); b.Rank != 70 {
+		t.Errorf("B7 of 1000: rank %d, want 70", b.Rank)
+	}
+	h := mustAcc(t, DefaultGrid, 1e6)
+	for range 100 {
+		h.Add(1e5)
+	}
+	if b, _ := h.BLife(0.07, 0.9); b.Rank != 7 {
+		t.Errorf("B7 of 100: rank %d, want 7", b.Rank)
+	}
 	// too few lives for a lower bound: 20 lives, B10 at 95 % (needs 29)
 	s := mustAcc(t, DefaultGrid, 1e6)
 	for range 20 {
