@@ -116,9 +116,10 @@ func (t *tally) merge(o *tally) {
 	}
 }
 
-// add counts n evaluated samples of o; with hist it adds them to the
-// sketches too. The preload sums go to s.
-func (t *tally) add(o *Out, n, nb int, sk *sketches, s *sums) {
+// add counts n evaluated samples of o; with sketches it bins them too
+// (first the sample number off of the chunk, which picks the bolt whose
+// forces are binned). The preload sums go to s.
+func (t *tally) add(o *Out, n, nb int, sk *sketches, off int, s *sums) {
 	if nb == 1 && sk == nil {
 		t.addOne(o, n, s)
 		return
@@ -150,7 +151,7 @@ func (t *tally) add(o *Out, n, nb int, sk *sketches, s *sums) {
 		}
 		if sk != nil {
 			t.binned++
-			sk.add(o, j, nb)
+			sk.add(o, j, nb, (off+j)%nb)
 		}
 	}
 }
@@ -177,19 +178,21 @@ func (t *tally) addOne(o *Out, n int, s *sums) {
 	}
 }
 
-// sketches are the distributions a worker bins: the quantities of every
-// bolt and each reported mode's safety factor.
+// sketches are the distributions a worker bins: the forces of one bolt per
+// sample (in turn, bolt (sample number mod bolts): the bolts are
+// exchangeable, so this samples the distribution of any bolt without
+// binning every bolt of every sample) and each reported mode's safety
+// factor (of the joint).
 type sketches struct {
 	q  [NumQuantities]quantile.Sketch
 	sf []quantile.Sketch // per reported mode
 }
 
-func (sk *sketches) add(o *Out, j, nb int) {
-	for b := j * nb; b < (j+1)*nb; b++ {
-		sk.q[QPreload].Add(o.Preload[b])
-		sk.q[QBoltForce].Add(o.BoltForce[b])
-		sk.q[QClamp].Add(o.Clamp[b])
-	}
+func (sk *sketches) add(o *Out, j, nb, bolt int) {
+	b := j*nb + bolt
+	sk.q[QPreload].Add(o.Preload[b])
+	sk.q[QBoltForce].Add(o.BoltForce[b])
+	sk.q[QClamp].Add(o.Clamp[b])
 	nm := len(sk.sf)
 	for i, v := range o.SF[j*nm : (j+1)*nm] {
 		if v == v { // NaN: the mode was inactive in this sample
@@ -230,22 +233,17 @@ func (sk *sketches) all() []*quantile.Sketch {
 	return out
 }
 
-// value returns sketch number i's value of sample j (bolt-level quantities
-// for every bolt: values).
-func sampleValues(o *Out, i, j, nb, nm int, f func(float64)) {
+// sampleValue hands f sketch number i's value of sample j, whose forces
+// come from the given bolt (see sketches), if it has one.
+func sampleValue(o *Out, i, j, nb, nm, bolt int, f func(float64)) {
+	b := j*nb + bolt
 	switch {
 	case i == int(QPreload):
-		for _, v := range o.Preload[j*nb : (j+1)*nb] {
-			f(v)
-		}
+		f(o.Preload[b])
 	case i == int(QBoltForce):
-		for _, v := range o.BoltForce[j*nb : (j+1)*nb] {
-			f(v)
-		}
+		f(o.BoltForce[b])
 	case i == int(QClamp):
-		for _, v := range o.Clamp[j*nb : (j+1)*nb] {
-			f(v)
-		}
+		f(o.Clamp[b])
 	default:
 		if v := o.SF[j*nm+i-int(NumQuantities)]; v == v {
 			f(v)
@@ -309,7 +307,7 @@ func (w *crudeWorker) runChunk(seed uint64, c, n int64) sums {
 		w.k.Draw(&w.pcg, w.rows, m)
 		w.k.MapNative(w.rows, m)
 		w.ev.Eval(w.rows, m, w.out, want)
-		w.t.add(w.out, m, w.k.nBolts, sk, &s)
+		w.t.add(w.out, m, w.k.nBolts, sk, int(j0), &s)
 	}
 	return s
 }
@@ -475,7 +473,9 @@ func pilot(k *Kernel, seed uint64) *sketches {
 				continue
 			}
 			for i := range vals {
-				sampleValues(o, i, j, nb, nm, func(v float64) { vals[i] = append(vals[i], v) })
+				for b := range nb {
+					sampleValue(o, i, j, nb, nm, b, func(v float64) { vals[i] = append(vals[i], v) })
+				}
 			}
 		}
 	}
@@ -509,7 +509,7 @@ type refiner struct {
 // samples), counting the values of each loose cell in fine bins. pass runs
 // one such pass on nw workers, handing each evaluated block to visit; it
 // reports whether it was interrupted. refine returns the passes run.
-func refine(ctx context.Context, res *Result, sk *sketches, nw, nm, nb int, pass func(visit func(wi int, o *Out, m int)) bool) int {
+func refine(ctx context.Context, res *Result, sk *sketches, nw, nm, nb int, pass func(visit func(wi int, o *Out, m, off int)) bool) int {
 	all := sk.all()
 	passes := 0
 	for passes < maxRefinePasses && ctx.Err() == nil {
@@ -530,14 +530,14 @@ func refine(ctx context.Context, res *Result, sk *sketches, nw, nm, nb int, pass
 			return passes
 		}
 		passes++
-		interrupted := pass(func(wi int, o *Out, m int) {
+		interrupted := pass(func(wi int, o *Out, m, off int) {
 			for j := range m {
 				if o.Invalid[j] {
 					continue
 				}
 				for _, r := range rs {
 					fine := &r.own[wi]
-					sampleValues(o, r.i, j, nb, nm, func(v float64) {
+					sampleValue(o, r.i, j, nb, nm, (off+j)%nb, func(v float64) {
 						if fine.Contains(v) {
 							fine.Add(v)
 						}
@@ -573,8 +573,8 @@ func binnedPass(ctx context.Context, samples, stride int64, nw int, job func(wi 
 
 // crudePass is the second pass of a crude run: the binned chunks evaluated
 // again by the workers.
-func crudePass(ctx context.Context, k *Kernel, s Settings, stride int64, workers []*crudeWorker) func(visit func(wi int, o *Out, m int)) bool {
-	return func(visit func(wi int, o *Out, m int)) bool {
+func crudePass(ctx context.Context, k *Kernel, s Settings, stride int64, workers []*crudeWorker) func(visit func(wi int, o *Out, m, off int)) bool {
+	return func(visit func(wi int, o *Out, m, off int)) bool {
 		return binnedPass(ctx, s.Samples, stride, len(workers), func(wi int, c, n int64) {
 			w := workers[wi]
 			rng.Seed(&w.pcg, s.Seed, uint64(c))
@@ -583,7 +583,7 @@ func crudePass(ctx context.Context, k *Kernel, s Settings, stride int64, workers
 				k.Draw(&w.pcg, w.rows, m)
 				k.MapNative(w.rows, m)
 				w.ev.Eval(w.rows, m, w.out, Detail)
-				visit(wi, w.out, m)
+				visit(wi, w.out, m, int(j0))
 			}
 		})
 	}

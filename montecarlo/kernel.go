@@ -466,6 +466,9 @@ func (e *Evaluator) evalOne(rows []float64, n int, o *Out) {
 }
 
 // detail writes sample j's safety factors, bolt forces and clamp forces.
+// The joint's safety factor in a bolt mode is its worst bolt's; the worst
+// is found by cross-multiplication (c_b·d_w < c_w·d_b, demands positive) so
+// that a sample costs one division per mode, not one per bolt.
 func (e *Evaluator) detail(o *Out, j, nm, nb int) {
 	k := e.k
 	sf := o.SF[j*nm : (j+1)*nm]
@@ -477,13 +480,15 @@ func (e *Evaluator) detail(o *Out, j, nm, nb int) {
 			}
 			continue
 		}
+		w := -1
 		for b := range e.bolts {
 			br := &e.bolts[b]
-			if br.Active[m] {
-				if s := br.Capacity[m] / br.Demand[m]; !(s >= sf[i]) { // NaN compares false: the first active bolt sets it
-					sf[i] = s
-				}
+			if br.Active[m] && (w < 0 || br.Capacity[m]*e.bolts[w].Demand[m] < e.bolts[w].Capacity[m]*br.Demand[m]) {
+				w = b
 			}
+		}
+		if w >= 0 {
+			sf[i] = e.bolts[w].Capacity[m] / e.bolts[w].Demand[m]
 		}
 	}
 	for b := range e.bolts {

@@ -269,11 +269,11 @@ func RunPaired(ctx context.Context, ps []*Problem, s Settings) (*Paired, error) 
 			r.setDistributions(merged)
 			if !interrupted {
 				v := i
-				r.RefinePasses = refine(ctx, r, merged, len(workers), len(modes), nb, func(visit func(wi int, o *Out, m int)) bool {
+				r.RefinePasses = refine(ctx, r, merged, len(workers), len(modes), nb, func(visit func(wi int, o *Out, m, off int)) bool {
 					return binnedPass(ctx, s.Samples, stride, len(workers), func(wi int, c, n int64) {
-						workers[wi].runChunk(s.Seed, c, n, nil, func(vi int, o *Out, m int) {
+						workers[wi].runChunk(s.Seed, c, n, nil, func(vi int, o *Out, m, off int) {
 							if vi == v {
-								visit(wi, o, m)
+								visit(wi, o, m, off)
 							}
 						})
 					})
@@ -304,7 +304,7 @@ func RunPaired(ctx context.Context, ps []*Problem, s Settings) (*Paired, error) 
 
 // runChunk evaluates chunk c in every variant. With visit set it is a
 // second pass: the evaluated blocks go to visit and nothing is counted.
-func (w *pairedWorker) runChunk(seed uint64, c, n int64, s []sums, visit func(v int, o *Out, m int)) {
+func (w *pairedWorker) runChunk(seed uint64, c, n int64, s []sums, visit func(v int, o *Out, m, off int)) {
 	rng.Seed(&w.pcg, seed, uint64(c))
 	hist := w.binStride > 0 && c%w.binStride == 0
 	want := Want(0)
@@ -326,14 +326,14 @@ func (w *pairedWorker) runChunk(seed uint64, c, n int64, s []sums, visit func(v 
 			st.k.MapNative(st.rows, m)
 			st.ev.Eval(st.rows, m, st.out, want)
 			if visit != nil {
-				visit(i, st.out, m)
+				visit(i, st.out, m, int(j0))
 				continue
 			}
 			var sk *sketches
 			if hist {
 				sk = st.sk
 			}
-			st.t.add(st.out, m, st.k.nBolts, sk, &s[i])
+			st.t.add(st.out, m, st.k.nBolts, sk, int(j0), &s[i])
 		}
 		if visit == nil {
 			w.countPairs(m)

@@ -97,7 +97,7 @@ func SimulationReview(s *scenario.Scenario, doc SimDoc, figs []Figure, prov Prov
 				pt.Rows = append(pt.Rows, row)
 			}
 		}
-		para := []string{"Forces over every bolt of each sample; safety factors of the joint, that is of its worst bolt in each sample.",
+		para := []string{"Forces of one bolt per sample, the bolts in turn (they are alike in distribution); safety factors of the joint, that is of its worst bolt in each sample.",
 			"Percentiles: " + percentileNote(doc.BinnedSamples, doc.Samples, doc.BinStride, maxRankError(doc)) + "."}
 		r.Sections = append(r.Sections, Section{Heading: "Percentiles", Table: pt, Paragraphs: para})
 	}

@@ -288,7 +288,7 @@ func writePercentiles(w io.Writer, doc SimDoc, sys units.System) {
 	fmt.Fprintln(w, "\nPercentiles")
 	fmt.Fprintf(w, "  (%s)\n", percentileNote(doc.BinnedSamples, doc.Samples, doc.BinStride, maxRankError(doc)))
 	if doc.BoltsPerSample > 1 {
-		fmt.Fprintln(w, "  (forces: every bolt of each sample; safety factors: the joint, i.e. its worst bolt)")
+		fmt.Fprintln(w, "  (forces: one bolt of each sample, the bolts in turn; safety factors: the joint, i.e. its worst bolt)")
 	}
 	tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', tabwriter.AlignRight)
 	fmt.Fprint(tw, "  quantity\t")
