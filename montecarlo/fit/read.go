@@ -31,9 +31,10 @@ func (q Quantity) scale() float64 {
 	return q.Scale
 }
 
-// Format writes an internal value with 4 significant digits and the unit.
+// Format writes an internal value with 4 significant digits (trailing
+// zeros dropped) and the unit.
 func (q Quantity) Format(v float64) string {
-	s := units.Sig(v/q.scale(), 4)
+	s := sig(v/q.scale(), 4)
 	switch q.Unit {
 	case "":
 		return s
@@ -94,6 +95,17 @@ func (e *DataError) Error() string {
 	b.WriteString(e.Msg)
 	return b.String()
 }
+
+// sig is units.Sig without the trailing zeros of the decimals.
+func sig(v float64, n int) string {
+	s := units.Sig(v, n)
+	if strings.Contains(s, ".") && !strings.ContainsAny(s, "eE") {
+		s = strings.TrimSuffix(strings.TrimRight(s, "0"), ".")
+	}
+	return s
+}
+
+var errNotDecimal = errors.New("not a decimal number")
 
 // progressEvery is the number of data rows between progress calls.
 const progressEvery = 1 << 16
@@ -216,6 +228,7 @@ func ReadColumn(r io.Reader, s Spec) (*Column, error) {
 		commaUsed = false
 	)
 	rows := 0
+	firstRow := 0 // file row of the first value
 	for {
 		rec, err := cs.Read()
 		if err == io.EOF {
@@ -244,9 +257,16 @@ func ReadColumn(r io.Reader, s Spec) (*Column, error) {
 			col.Blank = append(col.Blank, line)
 			continue
 		}
+		if firstRow == 0 {
+			firstRow, _ = cs.FieldPos(idx)
+		}
 		// Fast path: a bare finite number.
-		v, perr := strconv.ParseFloat(cell, 64)
-		if perr == nil && !math.IsNaN(v) && !math.IsInf(v, 0) && isDecimal(cell) {
+		var v float64
+		perr := errNotDecimal
+		if isDecimal(cell) { // before ParseFloat, whose errors allocate
+			v, perr = strconv.ParseFloat(cell, 64)
+		}
+		if perr == nil && !math.IsInf(v, 0) {
 			if s.Unit != "" {
 				v *= specFactor
 			} else {
@@ -344,28 +364,16 @@ func ReadColumn(r io.Reader, s Spec) (*Column, error) {
 		}
 		return nil, fail(2, col.Name, "no values: all %d cells are blank", rows)
 	case 1:
-		return nil, fail(firstValueRow(col), col.Name, "a single value (%s): a fit needs at least 2", col.Format(col.Values[0]))
+		return nil, fail(firstRow, col.Name, "a single value (%s): a fit needs at least 2", col.Format(col.Values[0]))
 	}
 	lo, hi := col.Values[0], col.Values[0]
 	for _, v := range col.Values {
 		lo, hi = math.Min(lo, v), math.Max(hi, v)
 	}
 	if lo == hi {
-		return nil, fail(firstValueRow(col), col.Name, "every one of the %d values is %s: a constant column has no scatter to fit", len(col.Values), col.Format(lo))
+		return nil, fail(firstRow, col.Name, "every one of the %d values is %s: a constant column has no scatter to fit", len(col.Values), col.Format(lo))
 	}
 	return col, nil
-}
-
-// firstValueRow is the file row of the first value: row 2 unless blank
-// cells come first.
-func firstValueRow(c *Column) int {
-	r := 2
-	for _, b := range c.Blank {
-		if b == r {
-			r++
-		}
-	}
-	return r
 }
 
 type badCell struct {

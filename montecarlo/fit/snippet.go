@@ -5,7 +5,6 @@ import (
 	"math"
 	"strings"
 
-	"boltrisk/model/units"
 	"boltrisk/montecarlo"
 )
 
@@ -23,9 +22,9 @@ func Snippet(d montecarlo.Dist, q Quantity) string {
 		return fmt.Sprintf("{dist: normal, mean: %s, sd: %s}", f(d.A), f(d.B))
 	case montecarlo.LogNormal:
 		cov := math.Sqrt(math.Expm1(d.B * d.B))
-		return fmt.Sprintf("{dist: lognormal, mean: %s, cov: %s%%}", f(d.Mean()), units.Sig(100*cov, 3))
+		return fmt.Sprintf("{dist: lognormal, mean: %s, cov: %s%%}", f(d.Mean()), sig(100*cov, 3))
 	case montecarlo.Weibull:
-		return fmt.Sprintf("{dist: weibull, shape: %s, scale: %s}", units.Sig(d.A, 4), f(d.B))
+		return fmt.Sprintf("{dist: weibull, shape: %s, scale: %s}", sig(d.A, 4), f(d.B))
 	case montecarlo.TruncNormal:
 		var b strings.Builder
 		fmt.Fprintf(&b, "{dist: truncnormal, mean: %s, sd: %s", f(d.A), f(d.B))
