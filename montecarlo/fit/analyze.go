@@ -320,6 +320,9 @@ func fitCandidate(kind montecarlo.Kind, s []float64, opt Options, conf float64, 
 	case montecarlo.Uniform, montecarlo.Triangular:
 		c.Notes = append(c.Notes, "support depends on the parameters: AIC and BIC are indicative only (the likelihood is not regular)")
 	}
+	if kind == montecarlo.Triangular {
+		c.Notes = append(c.Notes, "intervals of lower and mode, and the p-values, are rough: the likelihood is irregular (the mode sits on an order statistic, the lower or upper end often on an extreme value); in simulations with 30 values the 90 % intervals of lower and mode covered only about 60 %, and the p-values were conservative")
+	}
 	if kind == montecarlo.Uniform {
 		c.Notes = append(c.Notes, "ends: minimum-variance unbiased estimates (range/(n − 1) beyond the extremes)")
 	}
