@@ -328,6 +328,11 @@ func fitCandidate(kind montecarlo.Kind, s []float64, opt Options, conf float64, 
 	}
 	qs := quantities(kind)
 	mean, sd := d.Mean(), d.StdDev()
+	for _, v := range []float64{mean, sd, c.AD.Stat, c.KS.Stat, c.AIC, c.BIC} {
+		if math.IsNaN(v) || math.IsInf(v, 0) {
+			return nil, fmt.Errorf("fit: %s: the fitted distribution has no finite mean, sd or test statistic (mean %g, sd %g)", kind, mean, sd)
+		}
+	}
 	c.Params = make([]Param, len(qs.params))
 	for i, q := range qs.params {
 		c.Params[i] = Param{Name: q.name, Dim: q.dim, Value: q.val(&p, mean, sd)}
@@ -431,7 +436,25 @@ func fitCandidate(kind montecarlo.Kind, s []float64, opt Options, conf float64, 
 			c.Notes = append(c.Notes, "no c.o.v. interval: the mean of some bootstrap refits is not positive")
 		}
 	}
+	sanitize(c)
 	return c, nil
+}
+
+// sanitize drops intervals with an end that is not finite (a lognormal
+// c.o.v. beyond 10¹⁵⁰, say), with a note: results hold no NaN or Inf.
+func sanitize(c *Candidate) {
+	ok := func(v float64) bool { return !math.IsNaN(v) && !math.IsInf(v, 0) }
+	fix := func(p *Param) {
+		if p.Interval && !(ok(p.Lo) && ok(p.Hi)) {
+			p.Lo, p.Hi, p.Interval = 0, 0, false
+			c.Notes = append(c.Notes, "no interval of the "+p.Name+": an end is not finite")
+		}
+	}
+	for i := range c.Params {
+		fix(&c.Params[i])
+	}
+	fix(&c.Mean)
+	fix(&c.COV)
 }
 
 // quantile returns the p-quantile of sorted t by the (B + 1)·p rule,

@@ -62,6 +62,10 @@ func Estimate(kind montecarlo.Kind, x []float64, bounds *Bounds) (montecarlo.Dis
 	return d, p.ll, err
 }
 
+// maxMagnitude bounds the data so that squares, products and moments of
+// the fits stay finite.
+const maxMagnitude = 1e100
+
 // checkValues refuses too few, non-finite or constant values.
 func checkValues(x []float64) error {
 	if len(x) < 2 {
@@ -76,6 +80,11 @@ func checkValues(x []float64) error {
 	}
 	if lo == hi {
 		return fmt.Errorf("fit: all %d values are %g: a constant sample has no scatter to fit", len(x), lo)
+	}
+	for _, v := range x {
+		if a := math.Abs(v); a > maxMagnitude || a != 0 && a < 1/maxMagnitude {
+			return fmt.Errorf("fit: value %g lies outside the magnitudes the fits handle (10⁻¹⁰⁰ … 10¹⁰⁰): express the data in another unit", v)
+		}
 	}
 	return nil
 }

@@ -14,7 +14,7 @@ import (
 // itself; Weibull by shape and scale; truncnormal by the parent normal's
 // mean and sd with lower and upper (an open side left out); uniform by min
 // and max; triangular by min, mode and max. Values carry 4 significant
-// digits, the c.o.v. 3.
+// digits (trailing zeros dropped), the c.o.v. too.
 func Snippet(d montecarlo.Dist, q Quantity) string {
 	f := q.Format
 	switch d.Kind {
@@ -22,7 +22,7 @@ func Snippet(d montecarlo.Dist, q Quantity) string {
 		return fmt.Sprintf("{dist: normal, mean: %s, sd: %s}", f(d.A), f(d.B))
 	case montecarlo.LogNormal:
 		cov := math.Sqrt(math.Expm1(d.B * d.B))
-		return fmt.Sprintf("{dist: lognormal, mean: %s, cov: %s%%}", f(d.Mean()), sig(100*cov, 3))
+		return fmt.Sprintf("{dist: lognormal, mean: %s, cov: %s%%}", f(d.Mean()), sig(100*cov, 4))
 	case montecarlo.Weibull:
 		return fmt.Sprintf("{dist: weibull, shape: %s, scale: %s}", sig(d.A, 4), f(d.B))
 	case montecarlo.TruncNormal:
