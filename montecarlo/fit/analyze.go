@@ -25,11 +25,12 @@ const (
 	// and interval ends are order statistics (Davison & Hinkley, Bootstrap
 	// Methods and their Application, 1997, §4.2 and §5.2).
 	DefaultBootstrap = 999
-	// LargeBootstrap is the default above LargeN values, where each replicate
-	// is costly and a goodness-of-fit test rejects every family for
-	// deviations too small to matter.
-	LargeBootstrap = 99
-	LargeN         = 10000
+	// LargeN is the sample size above which no bootstrap is run by default:
+	// each replicate then costs about as much as the fit (seconds for the
+	// triangular at 10⁶ values), a goodness-of-fit test rejects every
+	// family for deviations too small to matter, and the intervals are
+	// narrow. Set Options.Bootstrap to run one anyway.
+	LargeN = 10000
 	// SmallN is the sample size below which a warning is given: with fewer
 	// than 10 values the goodness-of-fit tests can rarely tell the families
 	// apart (common practice).
@@ -52,8 +53,8 @@ type Options struct {
 	// DefaultConfidence.
 	Confidence float64
 	// Bootstrap is the number of parametric-bootstrap replicates per
-	// family; 0 means DefaultBootstrap (LargeBootstrap above LargeN
-	// values); negative means none: no p-values and no intervals.
+	// family; 0 means DefaultBootstrap, or none above LargeN values;
+	// negative means none: no p-values and no intervals.
 	Bootstrap int
 	// Seed of the bootstrap streams (0 is a seed like any other).
 	Seed uint64
@@ -171,7 +172,7 @@ func Analyze(x []float64, opt Options) (*Result, error) {
 	nb := opt.Bootstrap
 	switch {
 	case nb == 0 && n > LargeN:
-		nb = LargeBootstrap
+		nb = 0
 	case nb == 0:
 		nb = DefaultBootstrap
 	case nb < 0:
@@ -229,6 +230,9 @@ func Analyze(x []float64, opt Options) (*Result, error) {
 	rank(res.Candidates)
 	if n < SmallN {
 		res.Warnings = append(res.Warnings, fmt.Sprintf("only %d values (fewer than %d): the tests can rarely tell the families apart and the intervals are wide; the posterior predictive of a normal or lognormal fit carries the uncertainty of so small a series", n, SmallN))
+	}
+	if opt.Bootstrap == 0 && n > LargeN {
+		res.Notes = append(res.Notes, fmt.Sprintf("no bootstrap by default above %d values: with so many, every family is rejected for deviations too small to matter; judge the probability plot, or set the number of replicates", LargeN))
 	}
 	if nb > 0 {
 		res.Method = fmt.Sprintf("p-values: parametric bootstrap, %d replicates per family drawn from the fitted distribution and refitted (seed %d), p = (1 + #{T* ≥ T})/(B + 1); intervals (%g %% two-sided): bootstrap pivots — studentized for locations, log-ratio for scales, shapes and c.o.v., the c.o.v. of lognormal and Weibull mapped from the interval of its shape", nb, opt.Seed, 100*conf)

@@ -138,3 +138,16 @@ func TestLogMassTails(t *testing.T) {
 		t.Errorf("logQ jumps at 30: difference %g", d)
 	}
 }
+
+func TestLargeSampleSkipsBootstrap(t *testing.T) {
+	t.Parallel()
+	x := sample(must(montecarlo.NewNormal(30e3, 3e3)), LargeN+1, 4)
+	r, err := Analyze(x, Options{Families: []montecarlo.Kind{montecarlo.Normal, montecarlo.LogNormal}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if r.Bootstrap != 0 || r.Candidates[0].AD.HasP || !strings.Contains(strings.Join(r.Notes, " "), "no bootstrap by default") {
+		t.Errorf("large sample: %d replicates, notes %q", r.Bootstrap, r.Notes)
+	}
+	noNaN(t, r)
+}

@@ -279,6 +279,7 @@ func ReadColumn(r io.Reader, s Spec) (*Column, error) {
 			col.Values = append(col.Values, v)
 			continue
 		}
+		viaComma := false
 		if decimalComma && strings.Count(cell, ",") == 1 && !strings.Contains(cell, ".") {
 			c2 := strings.Replace(cell, ",", ".", 1)
 			if v, perr := strconv.ParseFloat(c2, 64); perr == nil && isDecimal(c2) && !math.IsInf(v, 0) {
@@ -295,7 +296,7 @@ func ReadColumn(r io.Reader, s Spec) (*Column, error) {
 				col.Values = append(col.Values, v)
 				continue
 			}
-			cell = c2
+			cell, viaComma = c2, true
 		}
 		num, unit := splitUnit(cell)
 		line, _ := cs.FieldPos(idx)
@@ -332,6 +333,7 @@ func ReadColumn(r io.Reader, s Spec) (*Column, error) {
 			return nil, fail(line, col.Name, "%q is a %s, but the column holds %s values (%s): mixed dimensions", rec[idx], info.dim, colUnit.dim, where)
 		}
 		col.Values = append(col.Values, v*info.factor)
+		commaUsed = commaUsed || viaComma
 	}
 	col.Rows = rows
 	if s.Progress != nil {

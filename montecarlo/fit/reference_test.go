@@ -142,3 +142,14 @@ func TestNormalAgreesWithGonum(t *testing.T) {
 	near(t, "lognormal μ", l.A, g.Mu, 1e-14)
 	near(t, "lognormal σ", l.B, g.Sigma, 1e-13)
 }
+
+// BenchmarkAnalyze fits the five default families to the 23 lives with the
+// default 999 bootstrap replicates each.
+func BenchmarkAnalyze(b *testing.B) {
+	x := lz(b)
+	for b.Loop() {
+		if _, err := Analyze(x, Options{Seed: 1}); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
