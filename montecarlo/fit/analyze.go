@@ -216,6 +216,7 @@ func Analyze(x []float64, opt Options) (*Result, error) {
 		}
 		c, err := fitCandidate(k, s, opt, conf, nb, prog)
 		if err != nil {
+			prog.add(nb) // the bootstrap did not run
 			if explicit {
 				return nil, err
 			}
@@ -503,6 +504,10 @@ func bootstrap(kind montecarlo.Kind, d montecarlo.Dist, s []float64, opt Options
 				if i >= nb {
 					break
 				}
+				if done++; done == 16 {
+					prog.add(done)
+					done = 0
+				}
 				rng.Seed(&pcg, seed, uint64(i))
 				for j := range x {
 					x[j] = d.FromUniform(rng.Unit(&pcg))
@@ -524,10 +529,6 @@ func bootstrap(kind montecarlo.Kind, d montecarlo.Dist, s []float64, opt Options
 				r.mean, r.sd = dd.Mean(), dd.StdDev()
 				r.ad, r.ks = gofStats(kind, &p, x, f, sv)
 				r.ok = !math.IsNaN(r.ad) && !math.IsNaN(r.ks)
-				if done++; done == 16 {
-					prog.add(done)
-					done = 0
-				}
 			}
 			prog.add(done)
 		}()

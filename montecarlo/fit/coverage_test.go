@@ -179,3 +179,18 @@ func TestWorkersDoNotChangeResults(t *testing.T) {
 		t.Error("another seed gives the same intervals")
 	}
 }
+
+func TestAnalyzeProgress(t *testing.T) {
+	t.Parallel()
+	var calls, done, total int
+	x := []float64{0.01, 0.02, 0.04, 0.05, 0.07, 0.1, 0.9, 0.92, 0.95, 0.97, 0.98, 0.99}
+	// truncnormal fails on these values and lognormal/Weibull are fitted:
+	// the count still reaches the total.
+	_, err := Analyze(x, Options{Bootstrap: 99, Bounds: &Bounds{0, 1}, Progress: func(d, n int) { calls++; done, total = d, n }})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if total != 6*99 || done != total || calls < 6 {
+		t.Errorf("progress %d of %d in %d calls", done, total, calls)
+	}
+}
