@@ -212,12 +212,13 @@ func normalLL(n int, sd float64) float64 {
 	return -float64(n) / 2 * (math.Log(2*math.Pi*sd*sd) + 1)
 }
 
-// weibullMLE solves the profile equation of the shape k (Lawless 2003,
-// eq. 5.1.? form):
+// weibullMLE solves the profile equation of the shape k (the likelihood
+// equations of Lawless 2003, ch. 5, with λ eliminated; from memory):
 //
 //	g(k) = Σ xᵢᵏ ln xᵢ / Σ xᵢᵏ − 1/k − mean(ln x) = 0,   λ = (Σ xᵢᵏ / n)^(1/k)
 //
-// g rises with k from −∞ to max ln x − mean ln x > 0, so the root is unique;
+// g rises with k (g' > 0, below) from −∞ to max ln x − mean ln x > 0, so
+// the root is unique;
 // it is found by Newton steps kept inside a bracket (bisection when a step
 // leaves it). The data are scaled by their maximum so that xᵏ ≤ 1.
 func weibullMLE(s []float64) (params, error) {
