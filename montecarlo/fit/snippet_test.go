@@ -16,7 +16,7 @@ import (
 // distribution to the 4 significant digits they carry.
 func TestSnippetLoads(t *testing.T) {
 	t.Parallel()
-	src, err := scenario.ExampleSource("r1")
+	src, err := scenario.ExampleSource("bench-m12")
 	if err != nil {
 		t.Fatal(err)
 	}
