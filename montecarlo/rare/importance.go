@@ -20,14 +20,14 @@ type ImportanceSettings struct {
 	// MaxSamples caps the samples of a precision-driven run (default 2²⁰).
 	MaxSamples int64
 	// ChunkSize is the number of samples per chunk, each chunk drawn from
-	// its own stream (default 256). Part of the reproducibility contract.
+	// its own stream (default 128). Part of the reproducibility contract.
 	ChunkSize  int
 	Confidence float64 // two-sided confidence of the intervals (default 0.95)
 	// Defensive is α0, the weight of the standard normal in the mixture
 	// (default 0.1; in (0, 1)).
 	Defensive float64
 	// AxisSD is the standard deviation of each mixture component along its
-	// design point's α (default 0.8; 1 keeps Σ = I; in (1/√2, 10]).
+	// design point's α (default 0.75; 1 keeps Σ = I; in (1/√2, 10]).
 	AxisSD float64
 	FORM   FORMSettings
 }
@@ -36,9 +36,9 @@ type ImportanceSettings struct {
 const (
 	DefaultPrecision  = 0.05
 	DefaultMaxSamples = 1 << 20
-	DefaultChunkSize  = 256
+	DefaultChunkSize  = 128
 	DefaultDefensive  = 0.1
-	DefaultAxisSD     = 0.8
+	DefaultAxisSD     = 0.75
 	DefaultConfidence = 0.95
 )
 
@@ -88,7 +88,7 @@ func (s *ImportanceSettings) withDefaults() (ImportanceSettings, error) {
 // Sample draws chunks 0, 1, 2, … of proposal q and returns their sums
 // merged in chunk order. With Samples > 0 it draws that many samples;
 // otherwise it checks the stopping rule after rounds of chunks: a first
-// round of 4 chunks, then rounds of max(1, ⌊chunks so far/8⌋) chunks, so
+// round of 4 chunks, then rounds of max(1, ⌊chunks so far/16⌋) chunks, so
 // where it stops depends on the seed only, never on the workers. It stops
 // early, returning the sums so far and the context's error, when ctx is
 // cancelled.
@@ -128,7 +128,7 @@ func sample(ctx context.Context, p *Problem, q *Proposal, is ImportanceSettings,
 		}
 		r := int64(4)
 		if done > 0 {
-			r = max(1, done/8)
+			r = max(1, done/16)
 		}
 		r = min(r, nChunks-done)
 		parts := make([]ChunkSums, r)
