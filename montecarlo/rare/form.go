@@ -254,7 +254,10 @@ func (f *formSearch) run() DesignPoint {
 			return finish(fmt.Sprintf("zero gradient at iteration %d (|g| = %.3g): g does not depend on its support coordinates there", it, math.Abs(g)))
 		}
 		for i := range alpha {
-			alpha[i] = -grad[i] / gn
+			alpha[i] = 0 // not −0 where the gradient vanishes
+			if grad[i] != 0 {
+				alpha[i] = -grad[i] / gn
+			}
 		}
 		au := dot(alpha, u)
 		perp := 0.0

@@ -2,6 +2,7 @@ package rare
 
 import (
 	"math"
+	"strings"
 	"testing"
 )
 
@@ -45,3 +46,5 @@ func closeRel(t *testing.T, what string, got, want, rel float64) {
 		t.Errorf("%s: got %.10g, want %.10g (relative error %.3g > %g)", what, got, want, got/want-1, rel)
 	}
 }
+
+func contains(s, sub string) bool { return strings.Contains(s, sub) }
