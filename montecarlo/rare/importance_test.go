@@ -7,6 +7,7 @@ import (
 	"math"
 	"reflect"
 	"strings"
+	"sync/atomic"
 	"testing"
 
 	"gonum.org/v1/gonum/stat"
@@ -308,5 +309,49 @@ func TestImportanceSettingsErrors(t *testing.T) {
 	q := &Proposal{Dim: 2, Defensive: 0.1, Components: []Gaussian{{Weight: 1, Mean: []float64{1, 1}, Axis: []float64{1, 0}, AxisSD: 0.6}}}
 	if err := q.Validate(); err == nil || !strings.Contains(err.Error(), "infinite variance") {
 		t.Errorf("narrow component accepted: %v", err)
+	}
+}
+
+// cancelEval cancels its context after a number of points.
+type cancelEval struct {
+	Evaluator
+	n      *atomic.Int64
+	after  int64
+	cancel context.CancelFunc
+}
+
+func (c cancelEval) Eval(u []float64, n int, g []float64) {
+	if c.n.Add(int64(n)) > c.after {
+		c.cancel()
+	}
+	c.Evaluator.Eval(u, n, g)
+}
+
+// A cancelled run returns what it has done, marked Partial.
+func TestCancelled(t *testing.T) {
+	t.Parallel()
+	for _, method := range []string{MethodImportance, MethodSubset} {
+		ctx, cancel := context.WithCancel(context.Background())
+		var n atomic.Int64
+		p := fourBranch(5.5, 0.1, 8)
+		inner := p.NewEvaluator
+		// Subset: the first round (2 runs, ≈ 7 000 points) completes.
+		p.NewEvaluator = func() Evaluator { return cancelEval{inner(), &n, 9000, cancel} }
+		var res []Result
+		var err error
+		if method == MethodImportance {
+			res, err = Importance(ctx, p, &ImportanceSettings{Seed: 1, Precision: 0.001, Workers: 1})
+		} else {
+			res, err = Subset(ctx, p, &SubsetSettings{Seed: 1, LevelSamples: 500, Runs: 2, Precision: 0.001, Workers: 1})
+		}
+		cancel()
+		if err != nil {
+			t.Fatalf("%s: %v", method, err)
+		}
+		r := res[0]
+		if !r.Partial || !(r.Probability > 0) {
+			t.Errorf("%s: partial %v, P %g", method, r.Partial, r.Probability)
+		}
+		t.Logf("%s: partial result P %.3g after %d evaluations", method, r.Probability, r.Evaluations)
 	}
 }

@@ -97,11 +97,13 @@ func (s *SubsetSettings) withDefaults() (SubsetSettings, error) {
 
 // Subset estimates the probability of every event of p (and of AnyEvent)
 // by subset simulation (Au & Beck 2001) on the event's limit state
-// min_{c ∈ event} g_c, with adaptive conditional sampling (Papaioannou et
-// al. 2015). Each event gets R independent runs, each from its own
-// streams; the estimate is their mean and its c.o.v. the spread of the
-// runs, s/(P̄·√R). Events with the same components share their runs. A
-// cancelled ctx gives the results of the completed rounds, marked Partial.
+// min_{c ∈ event} g_c, with preconditioned Crank–Nicolson moves whose step
+// adapts as in Papaioannou et al. (2015). Each event gets R independent
+// runs, each from its own streams; the estimate is their mean and its
+// c.o.v. comes from the spread of the runs: the larger of s/(P̄·√R) and the
+// lognormal fit √((exp(s_ln²) − 1)/R) (see the package documentation). Events with the same components share their runs.
+// A cancelled ctx gives the results of the runs completed so far, marked
+// Partial.
 func Subset(ctx context.Context, p *Problem, s *SubsetSettings) ([]Result, error) {
 	if err := p.Validate(); err != nil {
 		return nil, err
@@ -149,10 +151,17 @@ func Subset(ctx context.Context, p *Problem, s *SubsetSettings) ([]Result, error
 			if outer < len(jobs) {
 				ws = []int{w}
 			}
-			out[i] = runSubset(p, ts[j.t].comps, ss, family, evs, ws)
+			out[i] = runSubset(ctx, p, ts[j.t].comps, ss, family, evs, ws)
 		})
 		for i, j := range jobs {
+			if out[i].aborted {
+				partial = true
+				continue
+			}
 			runs[j.t] = append(runs[j.t], out[i])
+		}
+		if partial {
+			break
 		}
 	}
 	res := make([]Result, len(ts))
@@ -172,8 +181,9 @@ func Subset(ctx context.Context, p *Problem, s *SubsetSettings) ([]Result, error
 // subsetOutcome is one run's result with its failure-conditional mean.
 type subsetOutcome struct {
 	run    SubsetRun
-	shift  []float64 // mean of u over the final level's failed samples
-	failed int       // failed samples of the final level
+	shift   []float64 // mean of u over the final level's failed samples
+	failed  int       // failed samples of the final level
+	aborted bool      // cancelled before its last level: not used
 }
 
 // subsetCOV is the c.o.v. of the mean of the runs (+Inf when undefined):
@@ -315,7 +325,7 @@ type groupScratch struct {
 	gu   []float64
 }
 
-func runSubset(p *Problem, comps []int, ss SubsetSettings, family uint64, evs *evaluators, ws []int) subsetOutcome {
+func runSubset(ctx context.Context, p *Problem, comps []int, ss SubsetSettings, family uint64, evs *evaluators, ws []int) subsetOutcome {
 	n, d := ss.LevelSamples, p.Dim
 	r := &subsetRunner{p: p, comps: comps, ss: ss, family: family, evs: evs, ws: ws,
 		cur: make([]float64, n*d), gcur: make([]float64, n), next: make([]float64, n*d), gnext: make([]float64, n),
@@ -325,7 +335,7 @@ func runSubset(p *Problem, comps []int, ss SubsetSettings, family uint64, evs *e
 		r.scr = append(r.scr, &groupScratch{rows: make([]float64, rows*d), g: make([]float64, rows*p.Components),
 			u: make([]float64, chainGroup*d), gu: make([]float64, chainGroup)})
 	}
-	return r.run()
+	return r.run(ctx)
 }
 
 // stream returns the stream index of group g of a level.
@@ -364,7 +374,7 @@ func (r *subsetRunner) eval(slot int, rows []float64, k int, g []float64) {
 	}
 }
 
-func (r *subsetRunner) run() subsetOutcome {
+func (r *subsetRunner) run(ctx context.Context) subsetOutcome {
 	n, d := r.ss.LevelSamples, r.p.Dim
 	var out subsetOutcome
 	// Level 0: plain Monte Carlo in groups of rows, each its own stream.
@@ -388,6 +398,10 @@ func (r *subsetRunner) run() subsetOutcome {
 	var delta2 float64 // Σ_j (1 + γ_j)(1 − p_j)/(p_j N)
 	prevB := math.Inf(1)
 	for level := 0; ; level++ {
+		if ctx.Err() != nil {
+			out.aborted = true
+			return out
+		}
 		for i := range order {
 			order[i] = i
 		}
