@@ -180,7 +180,7 @@ func Subset(ctx context.Context, p *Problem, s *SubsetSettings) ([]Result, error
 
 // subsetOutcome is one run's result with its failure-conditional mean.
 type subsetOutcome struct {
-	run    SubsetRun
+	run     SubsetRun
 	shift   []float64 // mean of u over the final level's failed samples
 	failed  int       // failed samples of the final level
 	aborted bool      // cancelled before its last level: not used
