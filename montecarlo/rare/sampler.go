@@ -1,6 +1,7 @@
 package rare
 
 import (
+	"fmt"
 	"math"
 	"math/rand/v2"
 	"sort"
@@ -118,7 +119,7 @@ func NewSampler(p *Problem, q *Proposal) (*Sampler, error) {
 		return nil, err
 	}
 	if q.Dim != p.Dim {
-		panic("rare: proposal and problem dimensions differ")
+		return nil, fmt.Errorf("rare: Proposal.Dim is %d; Problem.Dim is %d", q.Dim, p.Dim)
 	}
 	s := &Sampler{d: p.Dim, nc: p.Components, targets: p.targets(), a0: q.Defensive}
 	sum := 0.0
@@ -208,14 +209,20 @@ func (s *Sampler) draw(u []float64) {
 	if k == len(s.cum) {
 		k--
 	}
+	nz, mu := s.idx[k], s.mu[k]
 	if ax := s.ax[k]; ax != nil {
-		t := s.sm1[k] * dot(ax, u)
-		for i := range u {
-			u[i] += t * ax[i]
+		t := 0.0
+		for _, i := range nz {
+			t += ax[i] * u[i]
 		}
+		t *= s.sm1[k]
+		for _, i := range nz {
+			u[i] += t*ax[i] + mu[i]
+		}
+		return
 	}
-	for i, m := range s.mu[k] {
-		u[i] += m
+	for _, i := range nz {
+		u[i] += mu[i]
 	}
 }
 
@@ -238,7 +245,9 @@ func (s *Sampler) weight(u []float64) float64 {
 			e -= s.kap[k] * t * t
 		}
 		s.e[k] = e
-		emax = math.Max(emax, e)
+		if e > emax {
+			emax = e
+		}
 	}
 	if emax < 700 {
 		h := s.a0
