@@ -355,3 +355,32 @@ func TestCancelled(t *testing.T) {
 		t.Logf("%s: partial result P %.3g after %d evaluations", method, r.Probability, r.Evaluations)
 	}
 }
+
+// The first-order bounds of the four-branch system, [Φ(−3), 2Φ(−3) +
+// 2Φ(−3.5)] = [1.35e-3, 3.63e-3], bracket the exact 2.2228e-3
+// (reliability-methods.md §1.3: FORM alone is 39 % low).
+func TestFORMBounds(t *testing.T) {
+	t.Parallel()
+	res, err := Importance(context.Background(), fourBranch(3, 0.1, 7/math.Sqrt2), &ImportanceSettings{Seed: 1})
+	if err != nil {
+		t.Fatal(err)
+	}
+	b := res[0].FORMBounds
+	closeRel(t, "lower bound", b[0], normSF(3), 1e-4)
+	closeRel(t, "upper bound", b[1], 2*normSF(3)+2*normSF(3.5), 1e-4)
+}
+
+// Memory does not grow with the samples: a chunk's allocations (its sums)
+// do not depend on its size.
+func TestChunkAllocations(t *testing.T) {
+	p := cf8()
+	dps, _ := DesignPoints(p, nil)
+	q, _ := NewProposal(p, dps, nil)
+	s, _ := NewSampler(p, q)
+	ev := p.NewEvaluator()
+	small := testing.AllocsPerRun(5, func() { s.Chunk(ev, 1, 0, 128) })
+	large := testing.AllocsPerRun(5, func() { s.Chunk(ev, 1, 0, 8192) })
+	if large != small {
+		t.Errorf("allocations per chunk: %v for 128 samples, %v for 8192", small, large)
+	}
+}
