@@ -27,7 +27,7 @@ func TestImportanceAnchors(t *testing.T) {
 				t.Fatal(err)
 			}
 			r := res[len(res)-1]
-			t.Logf("P %.6g = %.4f × exact, c.o.v. %.3f, evaluations %d (FORM %d), ESS %.0f, max share %.3g",
+			t.Logf("%-30s P %.6g = %.4f × exact, c.o.v. %.3f, evaluations %d (FORM %d), ESS %.0f, max share %.3g", a.name,
 				r.Probability, r.Probability/a.exact, r.COV, r.Evaluations, r.Importance.FORMEvaluations, r.Importance.ESS, r.Importance.MaxShare)
 			within(t, "P", r.Probability, a.exact, r.COV*r.Probability, 3)
 			if len(r.Warnings) > 0 {

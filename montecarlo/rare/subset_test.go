@@ -26,7 +26,7 @@ func TestSubsetAnchors(t *testing.T) {
 			}
 			r := res[len(res)-1]
 			run := r.Subset.Runs[0]
-			t.Logf("P %.6g = %.4f × exact, c.o.v. %.3f, evaluations %d, levels %d, thresholds %.3g",
+			t.Logf("%-30s P %.6g = %.4f × exact, c.o.v. %.3f, evaluations %d, levels %d, thresholds %.3g", a.name,
 				r.Probability, r.Probability/a.exact, r.COV, r.Evaluations, run.Levels, run.Thresholds)
 			// On the log scale, the scale of the reported interval: the
 			// runs' mean is right-skewed.
