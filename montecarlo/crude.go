@@ -44,6 +44,8 @@ type Settings struct {
 	// mode — is at most Precision; checked every 64 chunks (about 10⁶
 	// samples), so where a run stops does not depend on the workers.
 	Precision float64
+	// Method selects the estimator of Estimate (Run is always crude).
+	Method Method
 	// Interval selects the interval of each probability (default Auto:
 	// exact below 20 failures, Wilson above, one-sided when none failed).
 	Interval interval.Method

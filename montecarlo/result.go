@@ -82,6 +82,10 @@ type Result struct {
 	NBolts                 int // bolt evaluations per sample
 	// RefinePasses counts the second passes that refined percentiles.
 	RefinePasses int
+	// MethodNote says why auto chose the method ("" otherwise).
+	MethodNote string
+	// Rare holds the design points and diagnostics of a rare-event run.
+	Rare *RareInfo
 }
 
 // Mode returns the result of mode m, if reported.

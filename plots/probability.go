@@ -5,20 +5,69 @@ import (
 	"math"
 	"strconv"
 
+	"gonum.org/v1/gonum/mathext"
 	"gonum.org/v1/plot"
 	"gonum.org/v1/plot/plotter"
 	"gonum.org/v1/plot/vg"
-
-	"boltrisk/montecarlo/fit"
 )
+
+// Paper is a probability paper: the scale on which a family's CDF is a
+// straight line.
+type Paper uint8
+
+const (
+	NormalPaper    Paper = iota // Φ⁻¹(p) against x
+	LognormalPaper              // Φ⁻¹(p) against log x
+	WeibullPaper                // ln(−ln(1 − p)) against log x
+)
+
+func (p Paper) String() string { return [...]string{"normal", "lognormal", "Weibull"}[p] }
+
+// Y maps a probability onto the paper's axis.
+func (p Paper) Y(prob float64) float64 {
+	if p == WeibullPaper {
+		return math.Log(-math.Log1p(-prob))
+	}
+	return mathext.NormalQuantile(prob)
+}
+
+// P is the inverse of Y.
+func (p Paper) P(y float64) float64 {
+	if p == WeibullPaper {
+		return -math.Expm1(-math.Exp(y))
+	}
+	return 0.5 * math.Erfc(-y/math.Sqrt2)
+}
+
+// LogX reports whether the value axis is logarithmic.
+func (p Paper) LogX() bool { return p != NormalPaper }
+
+// ProbPoint is a value at a probability; ProbBand the band at a point.
+type (
+	ProbPoint struct{ X, P float64 }
+	ProbBand  struct{ P, Lo, Hi float64 }
+)
+
+// ProbabilityData is the data of a probability plot, values in the display
+// unit.
+type ProbabilityData struct {
+	Family     string // name of the fitted family
+	Paper      Paper
+	N, Shown   int    // the sample size and the points shown
+	Positions  string // the plotting positions used
+	Points     []ProbPoint
+	Line       []ProbPoint // the fitted CDF
+	Band       []ProbBand  // pointwise band, one per point
+	Confidence float64     // of the band
+}
 
 // ProbabilitySpec describes a probability plot of a sample against a
 // fitted distribution.
 type ProbabilitySpec struct {
 	Title  string
-	XLabel string       // value axis, with its unit: "preload (kN)"
-	Data   fit.ProbPlot // from fit.Probability
-	Fitted string       // legend of the fitted line; "" gives "<family> fit"
+	XLabel string // value axis, with its unit: "preload (kN)"
+	Data   ProbabilityData
+	Fitted string // legend of the fitted line; "" gives "<family> fit"
 }
 
 // ProbabilityPlot draws the ordered data at their plotting positions on the
@@ -108,7 +157,7 @@ func ProbabilityPlot(s ProbabilitySpec) (*plot.Plot, error) {
 
 	name := s.Fitted
 	if name == "" {
-		name = d.Family.String() + " fit"
+		name = d.Family + " fit"
 	}
 	data := fmt.Sprintf("data, n = %d", d.N)
 	if d.Shown < d.N {
@@ -122,7 +171,7 @@ func ProbabilityPlot(s ProbabilitySpec) (*plot.Plot, error) {
 
 // probScale maps probabilities onto the paper's axis: Φ⁻¹(p) or
 // ln(−ln(1 − p)).
-type probScale struct{ paper fit.Paper }
+type probScale struct{ paper Paper }
 
 func (s probScale) Normalize(lo, hi, x float64) float64 {
 	a, b := s.paper.Y(lo), s.paper.Y(hi)
@@ -131,11 +180,11 @@ func (s probScale) Normalize(lo, hi, x float64) float64 {
 
 // percentTicks labels a probability axis in per cent at the usual values
 // of probability paper.
-type percentTicks struct{ paper fit.Paper }
+type percentTicks struct{ paper Paper }
 
 func (t percentTicks) Ticks(lo, hi float64) []plot.Tick {
 	major := []float64{1e-6, 1e-5, 1e-4, 1e-3, 0.01, 0.05, 0.1, 0.2, 0.3, 0.5, 0.7, 0.8, 0.9, 0.95, 0.99, 0.999, 0.9999, 0.99999}
-	if t.paper == fit.WeibullPaper {
+	if t.paper == WeibullPaper {
 		major = []float64{1e-6, 1e-5, 1e-4, 1e-3, 0.01, 0.02, 0.05, 0.1, 0.2, 0.3, 0.5, 0.632, 0.8, 0.9, 0.95, 0.99, 0.999}
 	}
 	var out []plot.Tick

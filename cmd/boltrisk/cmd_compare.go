@@ -52,7 +52,7 @@ same service loads; anything else (condition, tool, torque, class…) may differ
 		},
 	}
 	opts.addFlags(cmd, true)
-	opts.Run.add(cmd, false)
+	opts.Run.add(cmd, false, "")
 	opts.Output.add(cmd)
 	return cmd
 }

@@ -34,8 +34,17 @@ every sample, and report the probability of each failure mode and of any mode,
 with its coefficient of variation and confidence interval, and percentiles of
 preload, bolt force, clamp force and safety factors.
 
+--method chooses the estimator: crude Monte Carlo; importance sampling in
+standard-normal space at the design points of every mode and bolt (a mixture
+with a defensive part, unbiased for any mode and any bolt); subset simulation
+(repeated runs give its c.o.v.); or auto (the default): crude when a pilot shows
+the budget reaches the precision (1/precision² failures), else importance
+sampling when every design point is found and the weights are healthy, else
+subset simulation. --precision stops every method once each probability's
+c.o.v. is at most the target (default 5 % for the rare-event methods).
+
 Results are reproducible: the same --seed gives identical numbers for any
---workers. Ctrl-C (or SIGTERM, SIGHUP) stops cleanly and reports what was done,
+--workers, for every method. Ctrl-C (or SIGTERM, SIGHUP) stops cleanly and reports what was done,
 marked partial.
 
 ` + report.Caution + "\n" + exitCodesHelp,
@@ -54,7 +63,7 @@ marked partial.
 		},
 	}
 	opts.addFlags(cmd, true)
-	opts.Run.add(cmd, true)
+	opts.Run.add(cmd, true, "auto")
 	opts.Output.add(cmd)
 	cmd.Flags().StringVar(&opts.LoadCurve, "load-curve", "", "with --out: also draw the probability of each mode against a multiplier LO..HI on the service loads, e.g. 0.5..2")
 	cmd.Flags().IntVar(&opts.LoadSteps, "load-steps", 9, "values of the load multiplier for --load-curve")
@@ -81,12 +90,12 @@ func runSimulate(ctx context.Context, opts *SimulateOptions) error {
 	}
 	var done func()
 	set.Progress, done = opts.Run.progress(opts.ErrOut, set.Samples, "sampling")
-	res, runErr := montecarlo.Run(ctx, &s.Problem, set)
+	res, runErr := montecarlo.Estimate(ctx, &s.Problem, set)
 	done()
 	if runErr != nil && !errors.Is(runErr, montecarlo.ErrInterrupted) {
 		return runErr
 	}
-	opts.Run.timing(opts.ErrOut, res.Samples+res.Invalid, res.Elapsed)
+	opts.Run.timing(opts.ErrOut, res.Evaluations, res.Elapsed)
 	doc := report.Simulation(s, res, report.Run{Samples: set.Samples, Interval: set.Interval}, toolVersion())
 	if opts.Output.Dir != "" {
 		if err := writeSimulationReview(ctx, opts, s, res, &doc, set, curve); err != nil {

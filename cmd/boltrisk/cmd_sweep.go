@@ -74,7 +74,7 @@ the largest scatter of INPUT (at the scenario's nominal values) that still meets
 	fl.IntVar(&opts.Steps, "steps", 11, "number of equally spaced values, ≥ 2")
 	fl.Float64Var(&opts.Target, "target", 0, "target failure probability in (0, 1): report the window that meets it")
 	fl.StringVar(&opts.MaxScatter, "max-scatter", "", "find the largest scatter of this uncertain input that meets --target")
-	opts.Run.add(cmd, false)
+	opts.Run.add(cmd, false, "crude")
 	opts.Output.add(cmd)
 	return cmd
 }

@@ -31,6 +31,7 @@ type runFlags struct {
 	Confidence float64
 	Precision  string
 	Interval   string
+	Method     string
 	Quiet      bool
 	Modes      string
 	changed    func(string) bool
@@ -38,8 +39,9 @@ type runFlags struct {
 }
 
 // add registers the flags; precision adds --precision (the stopping rule),
-// which the commands with a fixed sample count per run do not take.
-func (f *runFlags) add(cmd *cobra.Command, precision bool) {
+// which the commands with a fixed sample count per run do not take; method
+// (when not "") adds --method with that default.
+func (f *runFlags) add(cmd *cobra.Command, precision bool, method string) {
 	fl := cmd.Flags()
 	fl.StringVar(&f.Samples, "samples", "", "number of samples, e.g. 1e6 (default: the scenario's study.samples, else 1e6); the cap when --precision is set")
 	fl.Uint64Var(&f.Seed, "seed", 0, "seed of the random streams (default: the scenario's study.seed, else 1); the same seed gives identical results for any --workers")
@@ -48,6 +50,9 @@ func (f *runFlags) add(cmd *cobra.Command, precision bool) {
 	fl.StringVar(&f.Interval, "interval", "auto", "interval of each probability: auto (exact below 20 failures, Wilson above), exact (Clopper–Pearson) or wilson")
 	if precision {
 		fl.StringVar(&f.Precision, "precision", "", "stop once the coefficient of variation of every reported probability (each mode that failed, and any mode) is at most this, e.g. 5% or 0.05")
+	}
+	if method != "" {
+		fl.StringVar(&f.Method, "method", method, "estimator: crude (Monte Carlo), importance (sampling at the design points), subset (simulation) or auto (crude when the budget reaches the precision, else importance, else subset)")
 	}
 	fl.BoolVar(&f.Quiet, "quiet", false, "no progress bar or timing line on stderr")
 	fl.StringVar(&f.Modes, "modes", "", "comma-separated mode keys to tally (default: every active mode)")
@@ -92,11 +97,16 @@ func (f *runFlags) settings(s *scenario.Scenario) (montecarlo.Settings, error) {
 			set.Precision = s.Study.Precision
 		}
 	}
-	m, err := interval.ParseMethod(f.Interval)
+	im, err := interval.ParseMethod(f.Interval)
 	if err != nil {
 		return set, usagef("--interval %q: allowed auto, exact, wilson", f.Interval)
 	}
-	set.Interval = m
+	set.Interval = im
+	if f.Method != "" {
+		if set.Method, err = montecarlo.ParseMethod(f.Method); err != nil {
+			return set, usagef("--method %q: allowed auto, crude, importance, subset", f.Method)
+		}
+	}
 	if !(set.Confidence > 0 && set.Confidence < 1) {
 		return set, usagef("--confidence %g: must lie strictly between 0 and 1 (e.g. 0.95)", set.Confidence)
 	}
@@ -138,5 +148,5 @@ func (f *runFlags) timing(stderr io.Writer, n int64, d time.Duration) {
 	if f.Quiet {
 		return
 	}
-	fmt.Fprintf(stderr, "boltrisk: %d samples in %.2f s (%.2f M samples/s)\n", n, d.Seconds(), float64(n)/d.Seconds()/1e6)
+	fmt.Fprintf(stderr, "boltrisk: %d evaluations in %.2f s (%.2f M samples/s)\n", n, d.Seconds(), float64(n)/d.Seconds()/1e6)
 }

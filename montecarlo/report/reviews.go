@@ -70,7 +70,7 @@ func SimulationReview(s *scenario.Scenario, doc SimDoc, figs []Figure, prov Prov
 	}
 	r.Sections = append(r.Sections, inputsSection(s, doc.Joint, sys))
 	r.Sections = append(r.Sections, nominalSections(doc.Nominal, sys)...)
-	para := []string{intervalNote(doc.IntervalMethod, doc.Confidence) + ". A joint fails a bolt mode when any of its bolts does."}
+	para := []string{methodIntervalNote(doc.Method, doc.IntervalMethod, doc.Confidence) + ". A joint fails a bolt mode when any of its bolts does."}
 	if doc.MethodNote != "" {
 		para = append(para, "Method: "+doc.MethodNote+".")
 	}
@@ -98,7 +98,7 @@ func SimulationReview(s *scenario.Scenario, doc SimDoc, figs []Figure, prov Prov
 			}
 		}
 		para := []string{"Forces of one bolt per sample, the bolts in turn (they are alike in distribution); safety factors of the joint, that is of its worst bolt in each sample.",
-			"Percentiles: " + percentileNote(doc.BinnedSamples, doc.Samples, doc.BinStride, maxRankError(doc)) + "."}
+			"Percentiles from " + doc.PercentileSource + "; " + percentileNote(maxRankError(doc)) + "."}
 		r.Sections = append(r.Sections, Section{Heading: "Percentiles", Table: pt, Paragraphs: para})
 	}
 	r.Sections = append(r.Sections, warningsSection(doc.Warnings)...)

@@ -6,6 +6,7 @@ import (
 	"strings"
 	"text/tabwriter"
 
+	"boltrisk/model"
 	"boltrisk/model/units"
 	"boltrisk/montecarlo"
 	"boltrisk/montecarlo/interval"
@@ -90,8 +91,13 @@ type SimDoc struct {
 	Modes            []ProbDoc        `json:"modes"` // reported modes in report order, then "any"
 	PercentileLevels []float64        `json:"percentile_levels"`
 	Percentiles      []PercentilesDoc `json:"percentiles"`
+	// PercentileSource says where the percentiles come from: "every
+	// sample", "binned chunks", or a crude pass of a rare-event run.
+	PercentileSource string           `json:"percentile_source"`
 	PreloadMean      float64          `json:"preload_mean_N"`
 	PreloadSD        float64          `json:"preload_sd_N"`
+	DesignPoints     []DesignPointDoc `json:"design_points,omitempty"`
+	Diagnostics      []DiagnosticsDoc `json:"diagnostics,omitempty"`
 	Nominal          NominalBody      `json:"nominal"`
 	Warnings         []string         `json:"warnings"`
 	Caution          string           `json:"caution"`
@@ -101,14 +107,52 @@ type SimDoc struct {
 type Run struct {
 	Samples  int64
 	Interval interval.Method
-	Note     string // why the method was chosen
+}
+
+// DesignPointDoc is a mode's Hasofer–Lind design point for one bolt (FORM).
+type DesignPointDoc struct {
+	Mode string  `json:"mode"`
+	Bolt int     `json:"bolt"` // counting from 1; 0 for a joint-level mode
+	Beta float64 `json:"beta"`
+	// FORMApproximation is Φ(−β): a first-order approximation, not an
+	// estimate (no error bar); 0 when the search did not converge.
+	FORMApproximation float64          `json:"form_approximation"`
+	Converged         bool             `json:"converged"`
+	Message           string           `json:"message,omitempty"`
+	Evaluations       int64            `json:"evaluations"`
+	Inputs            []DesignInputDoc `json:"inputs"`
+}
+
+// DesignInputDoc is one input at a design point.
+type DesignInputDoc struct {
+	Path string `json:"path"`
+	Bolt int    `json:"bolt"` // counting from 1; 0 for a shared input
+	// Value in the input's SI unit; null for the shared part of a per-bolt
+	// input (a coordinate, not a value).
+	Value *float64 `json:"value"`
+	U     float64  `json:"u"`     // standard-normal coordinate
+	Alpha float64  `json:"alpha"` // direction cosine: α > 0 load-like, α < 0 resistance-like; α² the FORM importance factor
+}
+
+// DiagnosticsDoc describes the weights or runs behind one rare-event estimate.
+type DiagnosticsDoc struct {
+	Key string `json:"key"`
+	// Importance sampling: the effective sample size of the failed samples
+	// (Kish) and the largest weight's share of the estimate.
+	EffectiveSamples float64 `json:"effective_samples,omitempty"`
+	MaxWeightShare   float64 `json:"max_weight_share,omitempty"`
+	Degenerate       bool    `json:"degenerate,omitempty"`
+	// Subset simulation: the independent runs behind the c.o.v.
+	Runs     int      `json:"runs,omitempty"`
+	Levels   int      `json:"levels,omitempty"`
+	Warnings []string `json:"warnings,omitempty"`
 }
 
 // Simulation builds the simulate document.
 func Simulation(s *scenario.Scenario, r *montecarlo.Result, run Run, version string) SimDoc {
 	doc := SimDoc{
 		Envelope: envelope("simulate", version), Scenario: Info(s), Joint: Joint(s), Inputs: Inputs(s, units.SI),
-		Method: r.Method, MethodNote: run.Note, Evaluations: r.Evaluations,
+		Method: r.Method, MethodNote: r.MethodNote, Evaluations: r.Evaluations,
 		RequestedSamples: run.Samples, Samples: r.Samples, InvalidSamples: r.Invalid, Seed: r.Seed, Workers: r.Workers,
 		Confidence: r.Confidence, IntervalMethod: run.Interval.String(), Precision: r.Precision, PrecisionMet: r.Converged,
 		Partial: r.Partial, BoltsPerSample: r.NBolts,
@@ -124,8 +168,58 @@ func Simulation(s *scenario.Scenario, r *montecarlo.Result, run Run, version str
 			doc.Percentiles = append(doc.Percentiles, p)
 		}
 	}
+	doc.PercentileSource = percentileSource(r)
+	if r.Rare != nil {
+		doc.DesignPoints, doc.Diagnostics = rareDocs(r.Rare)
+		doc.Warnings = append(doc.Warnings, r.Rare.Warnings...)
+	}
 	doc.Warnings = append(doc.Warnings, runWarnings(s, r)...)
 	return doc
+}
+
+func percentileSource(r *montecarlo.Result) string {
+	switch {
+	case !r.HasDistributions():
+		return "none"
+	case r.Rare != nil:
+		return fmt.Sprintf("a crude Monte Carlo pass of %d samples (the probabilities come from %s)", r.Rare.PercentileSamples, methodName(r.Method))
+	case r.Binned < r.Samples:
+		return fmt.Sprintf("%d of the %d samples (one chunk in %d)", r.Binned, r.Samples, r.BinStride)
+	}
+	return "every sample"
+}
+
+// rareDocs documents a rare-event run's design points and diagnostics.
+func rareDocs(ri *montecarlo.RareInfo) ([]DesignPointDoc, []DiagnosticsDoc) {
+	var dps []DesignPointDoc
+	for _, d := range ri.DesignPoints {
+		dd := DesignPointDoc{Mode: d.Mode.Key(), Bolt: d.Bolt + 1, Beta: d.Beta, FORMApproximation: d.FORM, Converged: d.Converged,
+			Message: d.Message, Evaluations: d.Evaluations, Inputs: []DesignInputDoc{}}
+		for _, in := range d.Inputs {
+			di := DesignInputDoc{Path: in.Path, Bolt: in.Bolt + 1, U: in.U, Alpha: in.Alpha}
+			if !in.Part {
+				v := in.Value
+				di.Value = &v
+			}
+			dd.Inputs = append(dd.Inputs, di)
+		}
+		dps = append(dps, dd)
+	}
+	var diags []DiagnosticsDoc
+	for _, ev := range ri.Events {
+		d := DiagnosticsDoc{Key: ev.Event, Warnings: ev.Warnings}
+		if im := ev.Importance; im != nil {
+			d.EffectiveSamples, d.MaxWeightShare, d.Degenerate = im.ESS, im.MaxShare, im.Degenerate
+		}
+		if sd := ev.Subset; sd != nil {
+			d.Runs = len(sd.Runs)
+			for _, run := range sd.Runs {
+				d.Levels = max(d.Levels, run.Levels)
+			}
+		}
+		diags = append(diags, d)
+	}
+	return dps, diags
 }
 
 // runWarnings are the warnings a run's outcome raises.
@@ -208,6 +302,17 @@ func formatCOV(p ProbDoc) string {
 	return fmt.Sprintf("%.3g", *p.COV)
 }
 
+// methodIntervalNote says how a run's intervals were computed.
+func methodIntervalNote(method, interval string, conf float64) string {
+	switch method {
+	case "importance":
+		return fmt.Sprintf("%.4g %% intervals: log-normal around the estimate from its c.o.v. (the weights' standard error); failures / samples count the samples from the importance density", 100*conf)
+	case "subset":
+		return fmt.Sprintf("%.4g %% intervals: log-normal around the mean of independent runs from their c.o.v. (the spread of the runs, not the single-run formula)", 100*conf)
+	}
+	return intervalNote(interval, conf)
+}
+
 // intervalNote says how the intervals of a document were computed.
 func intervalNote(method string, conf float64) string {
 	base := fmt.Sprintf("%.4g %% intervals: ", 100*conf)
@@ -231,12 +336,17 @@ func WriteSimulation(w io.Writer, s *scenario.Scenario, doc SimDoc, sys units.Sy
 	n := doc.Nominal
 	fmt.Fprintf(w, "\nNominal joint: C = %.4f, preload %s (assembly %s), preload window %s … %s\n",
 		n.JointConstant, F(n.Preload), F(n.AssemblyPreload), F(n.Window.Lower), F(n.Window.Upper))
-	fmt.Fprintf(w, "\nFailure probabilities (%s): %d valid of %d samples requested, seed %d, %d workers\n",
-		methodName(doc.Method), doc.Samples, doc.RequestedSamples, doc.Seed, doc.Workers)
+	if doc.Method == "crude" {
+		fmt.Fprintf(w, "\nFailure probabilities (%s): %d valid of %d samples requested, seed %d, %d workers\n",
+			methodName(doc.Method), doc.Samples, doc.RequestedSamples, doc.Seed, doc.Workers)
+	} else {
+		fmt.Fprintf(w, "\nFailure probabilities (%s): %d evaluations of the joint model (cap %d), seed %d, %d workers\n",
+			methodName(doc.Method), doc.Evaluations, doc.RequestedSamples, doc.Seed, doc.Workers)
+	}
 	if doc.MethodNote != "" {
 		fmt.Fprintf(w, "  method: %s\n", doc.MethodNote)
 	}
-	fmt.Fprintf(w, "  %s\n", intervalNote(doc.IntervalMethod, doc.Confidence))
+	fmt.Fprintf(w, "  %s\n", methodIntervalNote(doc.Method, doc.IntervalMethod, doc.Confidence))
 	if doc.Precision > 0 {
 		if doc.PrecisionMet {
 			fmt.Fprintf(w, "  precision target c.o.v. ≤ %.3g met\n", doc.Precision)
@@ -254,7 +364,11 @@ func WriteSimulation(w io.Writer, s *scenario.Scenario, doc SimDoc, sys units.Sy
 		fmt.Fprintf(tw, "  %s\t%s\t%s\t%s\t%d / %d\t%s\t\n", p.Title, FormatProb(p), formatCOV(p), formatInterval(p), p.Failures, p.Samples, sf)
 	}
 	tw.Flush()
-	if doc.BoltsPerSample > 1 {
+	perBolt := false
+	for _, p := range doc.Modes {
+		perBolt = perBolt || p.PerBolt != nil
+	}
+	if perBolt {
 		fmt.Fprintf(w, "\nEach of the %d bolts draws its own assembly scatter; a joint fails a bolt mode when any bolt does.\n", doc.BoltsPerSample)
 		tw = tabwriter.NewWriter(w, 0, 0, 2, ' ', tabwriter.AlignRight)
 		fmt.Fprintln(tw, "  mode\tper-bolt probability\tinterval\t")
@@ -266,11 +380,52 @@ func WriteSimulation(w io.Writer, s *scenario.Scenario, doc SimDoc, sys units.Sy
 		}
 		tw.Flush()
 	}
+	if len(doc.DesignPoints) > 0 {
+		writeDesignPoints(w, doc.DesignPoints, sys)
+	}
 	if len(doc.Percentiles) > 0 {
 		writePercentiles(w, doc, sys)
 	}
 	writeWarnings(w, doc.Warnings)
 	WriteCaution(w)
+}
+
+func hasBolt(dps []DesignPointDoc, b int) bool {
+	for _, d := range dps {
+		if d.Bolt == b {
+			return true
+		}
+	}
+	return false
+}
+
+// writeDesignPoints lists the design points of bolt 1 (and the joint
+// modes): the others are the same with the bolts swapped.
+func writeDesignPoints(w io.Writer, dps []DesignPointDoc, sys units.System) {
+	fmt.Fprintln(w, "\nDesign points (Hasofer–Lind, improved HL-RF; FORM Φ(−β) is a first-order approximation, not an estimate)")
+	for _, d := range dps {
+		if d.Bolt > 1 {
+			continue
+		}
+		m, _ := model.ParseMode(d.Mode)
+		who := m.Title()
+		if d.Bolt == 1 && hasBolt(dps, 2) {
+			who += ", bolt 1 (every bolt alike)"
+		}
+		if !d.Converged {
+			fmt.Fprintf(w, "  %s: not found (%s)\n", who, d.Message)
+			continue
+		}
+		fmt.Fprintf(w, "  %s: β = %.3f, Φ(−β) ≈ %.3e\n", who, d.Beta, d.FORMApproximation)
+		tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', 0)
+		for _, in := range d.Inputs {
+			if in.Value == nil || in.Bolt > 1 || in.Alpha == 0 {
+				continue
+			}
+			fmt.Fprintf(tw, "    %s\t%s\tu = %+.2f\tα² = %.3f\n", in.Path, sys.Format(*in.Value, scenario.FieldDim(in.Path)), in.U, in.Alpha*in.Alpha)
+		}
+		tw.Flush()
+	}
 }
 
 func methodName(m string) string {
@@ -286,7 +441,7 @@ func methodName(m string) string {
 func writePercentiles(w io.Writer, doc SimDoc, sys units.System) {
 	F := func(v float64) string { return sys.Format(v, units.Force) }
 	fmt.Fprintln(w, "\nPercentiles")
-	fmt.Fprintf(w, "  (%s)\n", percentileNote(doc.BinnedSamples, doc.Samples, doc.BinStride, maxRankError(doc)))
+	fmt.Fprintf(w, "  (from %s; %s)\n", doc.PercentileSource, percentileNote(maxRankError(doc)))
 	if doc.BoltsPerSample > 1 {
 		fmt.Fprintln(w, "  (forces: one bolt of each sample, the bolts in turn; safety factors: the joint, i.e. its worst bolt)")
 	}
@@ -335,11 +490,10 @@ func maxRankError(doc SimDoc) float64 {
 	return m
 }
 
-// percentileNote says what the percentiles rest on.
-func percentileNote(binned, samples, stride int64, rankErr float64) string {
-	s := fmt.Sprintf("each an exact quantile of the binned samples at a level within ±%.2g of its nominal level", rankErr)
-	if binned >= samples || stride <= 1 {
-		return s + "; every sample binned"
+// percentileNote says how accurate the percentiles are.
+func percentileNote(rankErr float64) string {
+	if rankErr == 0 {
+		return "each an exact quantile of those samples"
 	}
-	return s + fmt.Sprintf("; from %d of the %d samples (one chunk in %d) — the probabilities count every sample", binned, samples, stride)
+	return fmt.Sprintf("each an exact quantile of those samples at a level within ±%.2g of its nominal level", rankErr)
 }

@@ -154,6 +154,8 @@ type Sweep struct {
 	Settings montecarlo.Settings
 	Steps    []Step
 	Partial  bool
+	// MethodNote says which method auto chose for every step, and why.
+	MethodNote string
 	// Windows, when a target was asked for (see FindWindow): from the point
 	// estimates and from the upper confidence bounds.
 	Window, Conservative *Window
@@ -181,6 +183,18 @@ func Run(ctx context.Context, p *montecarlo.Problem, v Vary, s montecarlo.Settin
 	s.ProbabilitiesOnly = true // curves need probabilities only
 	sw := &Sweep{Vary: v, Settings: s}
 	xs := v.Values()
+	if s.Method == montecarlo.Auto {
+		// One method for every step, so the steps share their random
+		// numbers: auto's choice at the middle step.
+		q, err := v.Apply(p, xs[len(xs)/2])
+		if err != nil {
+			return nil, err
+		}
+		if s.Method, sw.MethodNote, err = montecarlo.Resolve(ctx, q, s); err != nil {
+			return nil, err
+		}
+		sw.Settings.Method = s.Method
+	}
 	progress := s.Progress
 	for i, x := range xs {
 		st := s
@@ -222,7 +236,7 @@ func at(ctx context.Context, p *montecarlo.Problem, v Vary, x float64, s monteca
 	if err != nil {
 		return nil, err
 	}
-	return montecarlo.Run(ctx, q, s)
+	return montecarlo.Estimate(ctx, q, s)
 }
 
 // Window is the range of the varied value in which the joint meets a target
@@ -439,7 +453,7 @@ func FindSpreadLimit(ctx context.Context, p *montecarlo.Problem, path string, ta
 			off := int64(out.Runs) * s.Samples
 			st.Progress = func(done, _ int64) { progress(off+done, SpreadRuns*s.Samples) }
 		}
-		r, err := montecarlo.Run(ctx, q, st)
+		r, err := montecarlo.Estimate(ctx, q, st)
 		out.Runs++
 		if err != nil {
 			return 0, montecarlo.Dist{}, err

@@ -1,0 +1,22 @@
+package report
+
+import (
+	"boltrisk/montecarlo/fit"
+	"boltrisk/plots"
+)
+
+// ProbabilityData converts a fit's probability-plot data for plots.
+func ProbabilityData(pp fit.ProbPlot) plots.ProbabilityData {
+	d := plots.ProbabilityData{Family: pp.Family.String(), Paper: plots.Paper(pp.Paper), N: pp.N, Shown: pp.Shown,
+		Positions: pp.Positions, Confidence: pp.Confidence}
+	for _, p := range pp.Points {
+		d.Points = append(d.Points, plots.ProbPoint{X: p.X, P: p.P})
+	}
+	for _, p := range pp.Line {
+		d.Line = append(d.Line, plots.ProbPoint{X: p.X, P: p.P})
+	}
+	for _, b := range pp.Band {
+		d.Band = append(d.Band, plots.ProbBand{P: b.P, Lo: b.Lo, Hi: b.Hi})
+	}
+	return d
+}
