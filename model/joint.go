@@ -127,8 +127,8 @@ type BoltResult struct {
 	AssemblyPreload float64 // FM, N
 	Preload         float64 // residual preload Fi after embedding and relaxation, N
 	ThreadTorque    float64 // thread torque in tightening MG, N·mm
-	BoltForce       float64 // largest bolt force Fi + Φ·Pmax, N
-	Clamp           float64 // residual clamp force Fi − (1 − Φ)·Pmax, N (negative once separated)
+	BoltForce       float64 // largest bolt force, N: Fi + Φ·Pmax, or Pmax once separated
+	Clamp           float64 // least clamp force Fi − (1 − Φ)·Pmax, N; 0 once separated
 	// Demand, capacity and activity of the bolt modes (AssemblyYield …
 	// Fatigue); the shear-side entries stay zero. Laid out as in Outcome so
 	// that a one-bolt joint can be read from either.
@@ -280,10 +280,16 @@ func EvaluateBolt(in *Inputs, s *Stiffness, set ModeSet, b *BoltResult) {
 	}
 	phi := s.Phi
 	pmax, pmin := in.AxialMax, in.AxialMin
-	fb := fi + phi*pmax
+	// Closed joint: Fb = Fi + Φ·P, clamp Fi − (1 − Φ)·P (Shigley Eqs. 8-24,
+	// 8-25). Once P ≥ Fi/(1 − Φ) the members have separated: the bolt carries
+	// the whole external load, Fb = P, and the clamp force is 0 (Shigley §8-7).
+	fb, clamp := fi+phi*pmax, fi-(1-phi)*pmax
+	if clamp < 0 {
+		fb, clamp = pmax, 0
+	}
 
 	b.AssemblyPreload, b.Preload, b.ThreadTorque, b.BoltForce = fm, fi, mg, fb
-	b.Clamp = fi - (1-phi)*pmax
+	b.Clamp = clamp
 	b.Invalid = invalid
 	b.Active[AssemblyYield] = in.Method != DirectPreload || in.Preload > 0
 	b.Active[Proof] = true
@@ -321,10 +327,24 @@ func EvaluateBolt(in *Inputs, s *Stiffness, set ModeSet, b *BoltResult) {
 		return
 	}
 	if pmax > pmin {
-		b.Demand[Fatigue] = phi * (pmax - pmin) * 0.5 * s.invAs
 		si, q := fi*s.invAs, 1.0 // q = 1: repeated loading 0…Pmax, the common case
-		if pmin != 0 {
-			q = (pmax + pmin) / (pmax - pmin)
+		if clamp > 0 {
+			// Closed over the whole cycle: σa = Φ(Pmax − Pmin)/(2As) on the load
+			// line Sm = σi + q·Sa.
+			b.Demand[Fatigue] = phi * (pmax - pmin) * 0.5 * s.invAs
+			if pmin != 0 {
+				q = (pmax + pmin) / (pmax - pmin)
+			}
+		} else {
+			// Separated at Pmax (and perhaps at Pmin too): the cycle of the
+			// physical bolt force Fb(Pmin) … Fb(Pmax) = Pmax, and the load line
+			// from σi through its point (σm, σa).
+			fmin := fi + phi*pmin
+			if pmin*(1-phi) > fi {
+				fmin = pmin
+			}
+			b.Demand[Fatigue] = (fb - fmin) * 0.5 * s.invAs
+			q = (fb + fmin - 2*fi) / (fb - fmin)
 		}
 		if in.Criterion == Goodman {
 			// Inline form of StrengthAmplitude's Goodman case (Shigley Eq. 8-38).

@@ -22,7 +22,8 @@ type Window struct {
 	AssemblyMax float64
 	// BeneficialMax is the largest preload for which preload still improves
 	// the Goodman factor of safety over an unpreloaded bolt,
-	// (1 − C)·Sut·At (Shigley Eq. 8-50).
+	// (1 − Φ)·Sut·At (Shigley Eq. 8-50 with the load factor Φ = n·C in
+	// place of C: at that preload the factor equals the unpreloaded one).
 	BeneficialMax float64
 	Lower, Upper  float64 // max of the lower limits, min of the upper limits
 }
@@ -42,7 +43,7 @@ func PreloadWindow(in *Inputs) Window {
 	d0 := in.StressDiameter()
 	k := in.threadTorqueRatio() * as / (math.Pi / 12 * d0 * d0 * d0)
 	w.AssemblyMax = as * in.Yield / math.Sqrt(1+3*k*k)
-	w.BeneficialMax = (1 - s.C) * in.Tensile * as
+	w.BeneficialMax = (1 - s.Phi) * in.Tensile * as
 	w.Lower = math.Max(w.SeparationMin, w.SlipMin)
 	w.Upper = math.Min(w.ProofMax, w.AssemblyMax)
 	return w
