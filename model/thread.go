@@ -201,3 +201,24 @@ func pick(series string, unc, unf float64) float64 {
 	}
 	return unf
 }
+
+// ThreadShearAreas returns the shear areas (mm²) of the external thread
+// (bolt) and the internal thread (nut or tapped hole) over an engaged length
+// le, at the basic dimensions of the thread:
+//
+//	ASs = π·(le/P)·D1·[P/2 + (d2 − D1)·tan 30°]   (external, at the internal minor diameter D1)
+//	ASn = π·(le/P)·d·[P/2 + (d − d2)·tan 30°]     (internal, at the major diameter d)
+//
+// with D1 = d − 1.082532·P (ISO 724 basic internal minor diameter). These are
+// the FED-STD-H28/2B formulas (Machinery's Handbook, "Formulas for stress
+// areas and length of engagement"; secondary source) with basic in place of
+// the limiting dimensions: at basic size ASs = 0.75·π·D1·le and
+// ASn = 0.875·π·d·le. Tolerances make the real areas somewhat smaller.
+func ThreadShearAreas(th Thread, le float64) (ext, internal float64) {
+	p := th.Pitch
+	d1 := th.D - 1.082532*p
+	tan30 := 0.5773502691896258
+	ext = math.Pi * (le / p) * d1 * (p/2 + (th.PitchDia-d1)*tan30)
+	internal = math.Pi * (le / p) * th.D * (p/2 + (th.D-th.PitchDia)*tan30)
+	return ext, internal
+}
