@@ -85,7 +85,7 @@ func TestBadInput(t *testing.T) {
 		{"negative thickness", "- thickness: 15 mm", "- thickness: -3 mm", []string{"members.layers.1.thickness", "must be > 0"}},
 		{"bolt shorter than grip", "length: 50 mm", "length: 25 mm", []string{"bolt.length", "not longer than the grip 30.00 mm"}},
 		{"hole smaller than bolt", "  count: 4\n", "  count: 4\n  hole_diameter: 11 mm\n", []string{"bolt.hole_diameter", "11.00 mm", "must exceed the bolt diameter 12.00 mm"}},
-		{"unknown thread", "thread: M12", "thread: M13", []string{"bolt.thread", `"M13"`, "unknown thread", "M3–M36"}},
+		{"unknown thread", "thread: M12", "thread: M13", []string{"bolt.thread", `"M13"`, "unknown thread", "M2–M64"}},
 		{"unknown class", `class: "10.9"`, `class: "10.8"`, []string{"bolt.class", "unknown property class", "10.9"}},
 		{"edge distance inside hole", "edge_distance: 25 mm", "edge_distance: 6 mm", []string{"plate.edge_distance", "beyond the hole edge", "6.500 mm"}},
 		{"nut factor too high", "nut_factor: 0.2", "nut_factor: 1.5", []string{"tightening.nut_factor", "0.03 … 0.8"}},
