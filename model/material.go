@@ -234,7 +234,7 @@ func (m Material) PlateStrengthAt(t float64) (fy, fu float64, err error) {
 	if !m.IsPlate() {
 		return 0, 0, fmt.Errorf("%s is not a plate grade with tabulated strengths", m.Name)
 	}
-	return 0, 0, fmt.Errorf("the strengths of %s are tabulated for t ≤ %.4g mm (%s); t = %.4g mm", m.Name, m.Plate[len(m.Plate)-1].MaxThickness, m.Source, t)
+	return 0, 0, fmt.Errorf("the strengths of %s are tabulated for t ≤ %.4g mm; t = %.4g mm", m.Name, m.Plate[len(m.Plate)-1].MaxThickness, t)
 }
 
 // Wileman et al. general-expression constants (Shigley solutions-manual

@@ -40,9 +40,7 @@ func PreloadWindow(in *Inputs) Window {
 	}
 	w.ProofMax = in.Proof*as - s.Phi*pmax
 	// Torsion from the nominal tightening: MG/FM does not depend on FM.
-	d0 := in.StressDiameter()
-	k := in.threadTorqueRatio() * as / (math.Pi / 12 * d0 * d0 * d0)
-	w.AssemblyMax = as * in.Yield / math.Sqrt(1+3*k*k)
+	w.AssemblyMax = PermissibleAssemblyPreload(in, 1)
 	w.BeneficialMax = (1 - s.Phi) * in.Tensile * as
 	w.Lower = math.Max(w.SeparationMin, w.SlipMin)
 	w.Upper = math.Min(w.ProofMax, w.AssemblyMax)
