@@ -205,3 +205,41 @@ func TestHeadPressure(t *testing.T) {
 		t.Error("no limiting pressure known: head pressure not checked")
 	}
 }
+
+func TestPermissibleAssemblyPreloadAtNu09(t *testing.T) {
+	t.Parallel()
+	// VDI 2230-1 FMzul at ν = 0.9: published 41.9 kN for M12 8.8, μG = 0.14
+	// (reference sheet §4.6, confirmed indirectly), called directly.
+	th, _ := model.LookupThread("M12")
+	in := model.Inputs{Thread: th, Yield: 640, Method: model.FrictionMethod, ThreadFriction: 0.14, HeadFriction: 0.14,
+		BearingDia: 18, HoleDia: 13}
+	near(t, "FMzul", model.PermissibleAssemblyPreload(&in, 0.9)/1000, 41.9, 0.003)
+	near(t, "μG used", in.TorsionFriction(), 0.14, 1e-12)
+	// MA = FMzul·(P/(2π) + 0.577·d2·μG + DKm/2·μK) (VDI 2230-1 R13, exact
+	// constants), DKm = (18 + 13)/2.
+	fm := model.PermissibleAssemblyPreload(&in, 0.9)
+	want := fm * (1.75/(2*math.Pi) + 0.5773502691896258*th.PitchDia*0.14 + 15.5/2*0.14)
+	near(t, "MA", in.TorqueFor(fm), want, 1e-12)
+	// A tensioner: no torsion, FMzul = ν·As·Rp0.2.
+	in.Method, in.Tensioned = model.DirectPreload, true
+	near(t, "FMzul tensioned", model.PermissibleAssemblyPreload(&in, 0.9), 0.9*th.StressArea*640, 1e-12)
+}
+
+func TestEmbeddingEstimateTable5(t *testing.T) {
+	t.Parallel()
+	// VDI 2230-1 Table 5 (from memory), Rz 10–40 µm, axial: 3 µm in the
+	// thread, 3 per bearing face, 2 per inner interface. Through-bolt in two
+	// layers: 3 + 2·3 + 1·2 = 11 µm.
+	in := r1()
+	e := model.EmbeddingEstimateOf(&in, 0.016, false)
+	near(t, "fZ through-bolt", e.Total, 0.011, 1e-12)
+	// Transverse load, Rz < 10 µm: 3 + 2·3 + 1·2 = 11 µm as well; Rz 40–160,
+	// axial: 3 + 2·4 + 1·3 = 14 µm.
+	near(t, "fZ fine transverse", model.EmbeddingEstimateOf(&in, 0.006, true).Total, 0.011, 1e-12)
+	near(t, "fZ rough axial", model.EmbeddingEstimateOf(&in, 0.1, false).Total, 0.014, 1e-12)
+	// Cap screw with a head washer: one bearing face, interfaces layer/layer
+	// and washer/layer: 3 + 3 + 2·2 = 10 µm.
+	in.Tapped, in.Engagement = true, 10
+	in.Washer = model.Washer{Thickness: 2, OuterDia: 24, InnerDia: 13, Modulus: 207000}
+	near(t, "fZ cap screw", model.EmbeddingEstimateOf(&in, 0, false).Total, 0.010, 1e-12)
+}

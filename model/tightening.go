@@ -104,3 +104,16 @@ func (e EmbeddingEstimate) Describe() string {
 // PreloadLoss returns the preload lost by an embedding fz (mm):
 // FZ = fZ·kb·km/(kb + km) (VDI 2230-1).
 func (s *Stiffness) PreloadLoss(fz float64) float64 { return fz * s.kz }
+
+// TorsionFriction returns the thread friction μG behind the joint's thread
+// torsion: μG itself (friction method, preload methods), the ISO 16047 total
+// friction a nut factor implies (nut-factor method, 0 when negative), or 0
+// for a tensioner.
+func (in *Inputs) TorsionFriction() float64 {
+	lead, thread, _ := in.torqueTerms()
+	r := in.threadTorqueRatio()
+	if r == 0 {
+		return 0
+	}
+	return (r - lead) / thread
+}

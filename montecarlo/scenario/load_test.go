@@ -450,3 +450,43 @@ func TestCustomThreadAndLargeGrade(t *testing.T) {
 		t.Errorf("custom thread %+v, Sy %g", in.Thread, in.Yield)
 	}
 }
+
+func TestNotChecked(t *testing.T) {
+	t.Parallel()
+	s, err := Parse("n.yaml", []byte(base))
+	if err != nil {
+		t.Fatal(err)
+	}
+	got := map[string]string{}
+	for _, u := range s.NotChecked() {
+		got[u.Key] = u.Reason
+	}
+	for key, want := range map[string]string{
+		"thread_stripping":  "bolt.nut",
+		"head_pressure":     "pressure_limit",
+		"block_tearing":     "plate.gauge",
+		"slip":              "plate.slip_factor",
+		"prying":            "not modelled by this tool",
+		"eccentric_loading": "not modelled",
+	} {
+		if !strings.Contains(got[key], want) {
+			t.Errorf("not checked %s: got %q, want it to mention %q", key, got[key], want)
+		}
+	}
+	for _, key := range []string{"proof", "fatigue", "bolt_shear", "tension_shear"} {
+		if _, ok := got[key]; ok {
+			t.Errorf("%s is checked for this joint but listed as not checked", key)
+		}
+	}
+	// Without shear every shear-side mode is listed with that reason.
+	s, _ = Parse("n.yaml", []byte(strings.Replace(base, "  shear: 10 kN\n", "", 1)))
+	n := 0
+	for _, u := range s.NotChecked() {
+		if strings.Contains(u.Reason, "no shear load") {
+			n++
+		}
+	}
+	if n != 8 {
+		t.Errorf("%d shear-side modes listed as unchecked for want of shear, want 8", n)
+	}
+}
