@@ -33,8 +33,53 @@ type NominalDoc struct {
 	Window          WindowDoc          `json:"preload_window"`
 	Modes           map[string]ModeDoc `json:"modes"`
 	ModeOrder       []string           `json:"mode_order"`
+	TighteningCheck TighteningCheckDoc `json:"tightening_check"`
+	NotChecked      []NotCheckedDoc    `json:"not_checked"`
 	Warnings        []string           `json:"warnings"`
 	Caution         string             `json:"caution"`
+}
+
+// TighteningCheckDoc is the deterministic cross-check of the tightening a
+// reviewer does by hand (VDI 2230-1 form): the permissible assembly preload
+// FMzul and the tightening torque MA at utilisation ν = 0.9, the tightening
+// factor αA of the tool, and an embedding estimate from VDI 2230-1 Table 5.
+type TighteningCheckDoc struct {
+	Utilisation        float64 `json:"utilisation"`
+	ThreadFriction     float64 `json:"thread_friction"`
+	PermissiblePreload float64 `json:"permissible_assembly_preload_N"`
+	// TighteningTorque is MA at FMzul; 0 for preload-controlled methods.
+	TighteningTorque float64 `json:"tightening_torque_N_mm"`
+	Tool             string  `json:"tool,omitempty"`
+	AlphaALow        float64 `json:"alpha_a_low,omitempty"`
+	AlphaAHigh       float64 `json:"alpha_a_high,omitempty"`
+	AlphaASource     string  `json:"alpha_a_source,omitempty"`
+	// AlphaATool is (1 + t)/(1 − t) of the tool preset's own scatter ±t.
+	AlphaATool        float64 `json:"alpha_a_of_tool_scatter,omitempty"`
+	EmbeddingEstimate float64 `json:"embedding_estimate_mm"`
+	EmbeddingLoss     float64 `json:"embedding_estimate_loss_N"`
+	EmbeddingNote     string  `json:"embedding_estimate_note"`
+	EmbeddingUsed     float64 `json:"embedding_used_mm"`
+}
+
+// NotCheckedDoc is a mode (by key) or topic that was not evaluated, and why.
+type NotCheckedDoc struct {
+	Key    string `json:"key"`
+	Reason string `json:"reason"`
+}
+
+// tighteningCheck fills the tightening cross-check of a scenario.
+func tighteningCheck(s *scenario.Scenario, st model.Stiffness) TighteningCheckDoc {
+	in := s.Inputs()
+	const nu = 0.9 // VDI 2230-1 utilisation of Rp0.2 in tightening
+	fm := model.PermissibleAssemblyPreload(in, nu)
+	fz := model.EmbeddingEstimateOf(in, s.Roughness, in.ShearLoad > 0)
+	d := TighteningCheckDoc{Utilisation: nu, ThreadFriction: in.TorsionFriction(), PermissiblePreload: fm,
+		TighteningTorque: in.TorqueFor(fm), EmbeddingEstimate: fz.Total, EmbeddingLoss: st.PreloadLoss(fz.Total),
+		EmbeddingNote: "VDI 2230-1 Table 5 (from memory): " + fz.Describe(), EmbeddingUsed: in.Embedding}
+	if t, ok := s.ToolPreset(); ok {
+		d.Tool, d.AlphaALow, d.AlphaAHigh, d.AlphaASource, d.AlphaATool = t.Name, t.AlphaALo, t.AlphaAHi, t.AlphaASource, t.AlphaA()
+	}
+	return d
 }
 
 // WindowDoc is the preload window in N.
@@ -91,6 +136,11 @@ func Nominal(s *scenario.Scenario, version string) NominalDoc {
 			SafetyFactor: FiniteSF(o.SafetyFactor(m)), Margin: o.Margin(m), Fails: o.Fails(m)}
 		doc.ModeOrder = append(doc.ModeOrder, m.Key())
 	}
+	doc.TighteningCheck = tighteningCheck(s, o.Stiffness)
+	doc.NotChecked = []NotCheckedDoc{}
+	for _, u := range s.NotChecked() {
+		doc.NotChecked = append(doc.NotChecked, NotCheckedDoc{Key: u.Key, Reason: u.Reason})
+	}
 	for _, wr := range s.Warnings {
 		doc.Warnings = append(doc.Warnings, wr.String())
 	}
@@ -125,6 +175,8 @@ func WriteNominal(w io.Writer, s *scenario.Scenario, doc NominalDoc, sys units.S
 	fmt.Fprintln(w, "\nInputs")
 	writeRows(w, Inputs(s, sys))
 	writeNominalBody(w, doc, sys)
+	writeTighteningCheck(w, doc.TighteningCheck, sys)
+	writeNotChecked(w, doc.NotChecked)
 	writeWarnings(w, doc.Warnings)
 	WriteCaution(w)
 }
@@ -220,5 +272,39 @@ func writeWarnings(w io.Writer, ws []string) {
 	fmt.Fprintln(w, "\nWarnings")
 	for _, s := range ws {
 		fmt.Fprintln(w, "  - "+s)
+	}
+}
+
+// writeTighteningCheck writes the tightening cross-check rows.
+func writeTighteningCheck(w io.Writer, d TighteningCheckDoc, sys units.System) {
+	F := func(v float64) string { return sys.Format(v, units.Force) }
+	fmt.Fprintln(w, "\nTightening cross-check (VDI 2230-1)")
+	tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', 0)
+	fmt.Fprintf(tw, "  permissible assembly preload FMzul\t%s\t(ν = %g, μG = %.3g)\n", F(d.PermissiblePreload), d.Utilisation, d.ThreadFriction)
+	if d.TighteningTorque > 0 {
+		fmt.Fprintf(tw, "  tightening torque MA at FMzul\t%s\n", sys.Format(d.TighteningTorque, units.Torque))
+	} else {
+		fmt.Fprintf(tw, "  tightening torque MA at FMzul\t—\t(preload-controlled tightening)\n")
+	}
+	if d.Tool != "" {
+		fmt.Fprintf(tw, "  tightening factor αA, %s\t%.3g – %.3g\t(VDI 2230-1 Table A8; the preset's own scatter alone gives %.3g)\n", d.Tool, d.AlphaALow, d.AlphaAHigh, d.AlphaATool)
+	}
+	fmt.Fprintf(tw, "  embedding estimate fZ\t%s\t%s lost; %s\n", sys.Format(d.EmbeddingEstimate, units.Length), F(d.EmbeddingLoss), d.EmbeddingNote)
+	used := "none"
+	if d.EmbeddingUsed > 0 {
+		used = sys.Format(d.EmbeddingUsed, units.Length)
+	}
+	fmt.Fprintf(tw, "  embedding used in the model\t%s\n", used)
+	tw.Flush()
+}
+
+// writeNotChecked writes the modes and topics that were not evaluated.
+func writeNotChecked(w io.Writer, list []NotCheckedDoc) {
+	if len(list) == 0 {
+		return
+	}
+	fmt.Fprintln(w, "\nNot checked")
+	for _, u := range list {
+		fmt.Fprintf(w, "  - %s: %s\n", u.Key, u.Reason)
 	}
 }
