@@ -109,6 +109,14 @@ func TestTemperaturePreloadChange(t *testing.T) {
 	// 865 kN/mm (two aluminium frusta, Eq. 8-19), kb·km/(kb + km) = 366.3 kN/mm:
 	// ΔF = 0.02784 mm · 366.3 kN/mm = 10.20 kN.
 	near(t, "ΔF value (kN)", want/1000, 10.20, 0.002)
+	// The stiffness of a joint assembled cold serves every drawn ΔT (the
+	// Monte Carlo driver computes it once when ΔT is the only uncertain input).
+	in.TemperatureChange = 0
+	s0 := model.ComputeStiffness(&in)
+	in.TemperatureChange = 80
+	var b model.BoltResult
+	model.EvaluateBolt(&in, &s0, model.AllModes, &b)
+	near(t, "ΔF with the cold stiffness", b.Preload-cold.Bolt.Preload, want, 1e-9)
 	// Cooling loses it; the assembly preload is unchanged.
 	in.TemperatureChange = -80
 	model.Evaluate(&in, &hot)

@@ -196,9 +196,7 @@ func ComputeStiffness(in *Inputs) Stiffness {
 	kz := kb * km / (kb + km)
 	s := Stiffness{Kb: kb, Km: km, C: c, Phi: n * c, Grip: grip,
 		kz: kz, sepF: 1 / (1 - n*c), invAs: 1 / in.Thread.StressArea}
-	if in.TemperatureChange != 0 {
-		s.Thermal = in.thermalMismatch() * kz
-	}
+	s.Thermal = in.thermalMismatch() * kz // a drawn ΔT multiplies it per sample
 	s.pressInvArea, s.pressLimit = in.governingFace()
 	if in.Tapped {
 		s.shearExt, s.shearInt = ThreadShearAreas(in.Thread, in.Engagement)
