@@ -336,7 +336,8 @@ func EvaluateBolt(in *Inputs, s *Stiffness, set ModeSet, b *BoltResult) {
 	default:
 		fm = in.Preload
 		if torsion && !in.Tensioned {
-			mg = fm * in.threadTorqueRatio()
+			lead, thread, _ := in.torqueTerms()
+			mg = fm * (lead + thread*math.Max(in.ThreadFriction, 0))
 		}
 		invalid = !(in.ThreadFriction >= 0)
 	}
@@ -366,30 +367,6 @@ func EvaluateBolt(in *Inputs, s *Stiffness, set ModeSet, b *BoltResult) {
 	b.Active[ServiceYield] = true
 	b.Active[Separation] = pmax > 0
 	b.Active[Fatigue] = pmax > pmin
-	b.Active[ThreadStripping] = in.Tapped || in.NutProof > 0
-	b.Active[HeadPressure] = s.pressLimit > 0
-
-	// Thread stripping and surface pressure at the assembly preload and at
-	// the service maximum (VDI 2230-1).
-	if set&(1<<ThreadStripping|1<<HeadPressure) != 0 {
-		f := math.Max(fm, fb)
-		if b.Active[ThreadStripping] {
-			b.Demand[ThreadStripping] = f
-			if in.Tapped {
-				// The weaker of the bolt's thread (τ = threadShearRatio·Rm) and
-				// the tapped material's over the engaged length.
-				b.Capacity[ThreadStripping] = math.Min(threadShearRatio*in.Tensile*s.shearExt, in.TappedShear*s.shearInt)
-			} else {
-				// A nut of ISO 898-2 class withstands its proof load Sp,nut·As.
-				b.Capacity[ThreadStripping] = in.NutProof * th.StressArea
-			}
-		}
-		if b.Active[HeadPressure] {
-			b.Demand[HeadPressure] = f * s.pressInvArea
-			b.Capacity[HeadPressure] = s.pressLimit
-		}
-	}
-
 	if torsion {
 		d0 := in.StressDiameter()
 		d03 := d0 * d0 * d0
@@ -416,42 +393,72 @@ func EvaluateBolt(in *Inputs, s *Stiffness, set ModeSet, b *BoltResult) {
 	b.Capacity[Separation] = fi * s.sepF
 
 	// Fatigue on the load line through the preload stress σi.
-	if !set.Has(Fatigue) {
-		return
-	}
-	if pmax > pmin {
-		si, q := fi*s.invAs, 1.0 // q = 1: repeated loading 0…Pmax, the common case
-		if clamp > 0 {
-			// Closed over the whole cycle: σa = Φ(Pmax − Pmin)/(2As) on the load
-			// line Sm = σi + q·Sa.
-			b.Demand[Fatigue] = phi * (pmax - pmin) * 0.5 * s.invAs
-			if pmin != 0 {
-				q = (pmax + pmin) / (pmax - pmin)
+	if set.Has(Fatigue) {
+		if pmax > pmin {
+			si, q := fi*s.invAs, 1.0 // q = 1: repeated loading 0…Pmax, the common case
+			if clamp > 0 {
+				// Closed over the whole cycle: σa = Φ(Pmax − Pmin)/(2As) on the load
+				// line Sm = σi + q·Sa.
+				b.Demand[Fatigue] = phi * (pmax - pmin) * 0.5 * s.invAs
+				if pmin != 0 {
+					q = (pmax + pmin) / (pmax - pmin)
+				}
+			} else {
+				b.Demand[Fatigue], q = separatedCycle(fi, fb, phi, pmin, s.invAs)
+			}
+			if in.Criterion == Goodman {
+				// Inline form of StrengthAmplitude's Goodman case (Shigley Eq. 8-38).
+				sa := in.Endurance * (in.Tensile - si) / (in.Tensile + q*in.Endurance)
+				if !(sa > 0) {
+					sa = 0
+				}
+				b.Capacity[Fatigue] = sa
+			} else {
+				b.Capacity[Fatigue] = StrengthAmplitude(in.Criterion, in.Endurance, in.Tensile, in.Proof, si, q)
 			}
 		} else {
-			// Separated at Pmax (and perhaps at Pmin too): the cycle of the
-			// physical bolt force Fb(Pmin) … Fb(Pmax) = Pmax, and the load line
-			// from σi through its point (σm, σa).
-			fmin := fi + phi*pmin
-			if pmin*(1-phi) > fi {
-				fmin = pmin
-			}
-			b.Demand[Fatigue] = (fb - fmin) * 0.5 * s.invAs
-			q = (fb + fmin - 2*fi) / (fb - fmin)
+			b.Demand[Fatigue], b.Capacity[Fatigue] = 0, 0
 		}
-		if in.Criterion == Goodman {
-			// Inline form of StrengthAmplitude's Goodman case (Shigley Eq. 8-38).
-			sa := in.Endurance * (in.Tensile - si) / (in.Tensile + q*in.Endurance)
-			if !(sa > 0) {
-				sa = 0
-			}
-			b.Capacity[Fatigue] = sa
-		} else {
-			b.Capacity[Fatigue] = StrengthAmplitude(in.Criterion, in.Endurance, in.Tensile, in.Proof, si, q)
-		}
-	} else {
-		b.Demand[Fatigue], b.Capacity[Fatigue] = 0, 0
 	}
+	if set&(1<<ThreadStripping|1<<HeadPressure) != 0 {
+		boltExtras(in, s, b, fm, fb)
+	}
+}
+
+// boltExtras evaluates thread stripping and the surface pressure under
+// head, nut or washer, at the assembly preload and at the service maximum
+// (VDI 2230-1).
+func boltExtras(in *Inputs, s *Stiffness, b *BoltResult, fm, fb float64) {
+	b.Active[ThreadStripping] = in.Tapped || in.NutProof > 0
+	b.Active[HeadPressure] = s.pressLimit > 0
+	f := math.Max(fm, fb)
+	if b.Active[ThreadStripping] {
+		b.Demand[ThreadStripping] = f
+		if in.Tapped {
+			// The weaker of the bolt's thread (τ = threadShearRatio·Rm) and
+			// the tapped material's over the engaged length.
+			b.Capacity[ThreadStripping] = math.Min(threadShearRatio*in.Tensile*s.shearExt, in.TappedShear*s.shearInt)
+		} else {
+			// A nut of ISO 898-2 class withstands its proof load Sp,nut·As.
+			b.Capacity[ThreadStripping] = in.NutProof * in.Thread.StressArea
+		}
+	}
+	if b.Active[HeadPressure] {
+		b.Demand[HeadPressure] = f * s.pressInvArea
+		b.Capacity[HeadPressure] = s.pressLimit
+	}
+}
+
+// separatedCycle returns σa and the load-line slope q of a cycle that
+// separates at Pmax (and perhaps at Pmin too): the cycle of the physical bolt
+// force Fb(Pmin) … Fb(Pmax) = Pmax, and the load line from σi through its
+// point (σm, σa).
+func separatedCycle(fi, fb, phi, pmin, invAs float64) (sa, q float64) {
+	fmin := fi + phi*pmin
+	if pmin*(1-phi) > fi {
+		fmin = pmin
+	}
+	return (fb - fmin) * 0.5 * invAs, (fb + fmin - 2*fi) / (fb - fmin)
 }
 
 // StrengthAmplitude returns the strength amplitude Sa where the load line
@@ -526,18 +533,33 @@ func EvaluateJoint(in *Inputs, s *Stiffness, bolts []BoltResult, out *Outcome) {
 		}
 		w := 0
 		active := bolts[0].Active[m]
+		if !active && !anyActive(bolts, m) {
+			// A mode no bolt has (a tapped hole's stripping on a through-bolt):
+			// no search.
+			out.Demand[m], out.Capacity[m], out.Active[m] = bolts[0].Demand[m], bolts[0].Capacity[m], false
+			continue
+		}
+		active = true
 		for i := 1; i < len(bolts); i++ {
 			// bolt i is worse when cap_i/dem_i < cap_w/dem_w (demands are positive).
 			if bolts[i].Capacity[m]*bolts[w].Demand[m] < bolts[w].Capacity[m]*bolts[i].Demand[m] {
 				w = i
 			}
-			active = active || bolts[i].Active[m]
 		}
 		out.Demand[m] = bolts[w].Demand[m]
 		out.Capacity[m] = bolts[w].Capacity[m]
 		out.Active[m] = active
 	}
 	JointModes(in, ClampSum(in, bolts), out)
+}
+
+func anyActive(bolts []BoltResult, m Mode) bool {
+	for i := range bolts {
+		if bolts[i].Active[m] {
+			return true
+		}
+	}
+	return false
 }
 
 // ClampSum returns the summed residual clamp force of the joint's bolts

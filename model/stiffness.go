@@ -177,8 +177,11 @@ type Stiffness struct {
 // (Shigley §8-7: C = kb/(kb + km)). The load factor Φ = n·C applies the VDI
 // 2230 load-introduction factor n (1 when the load acts under head and nut).
 func ComputeStiffness(in *Inputs) Stiffness {
+	layers := in.Layers[:in.NLayers]
 	var buf [MaxLayers + 2]Layer
-	layers := in.stack(&buf)
+	if in.Tapped || in.Washer.Present() || in.NutWasher.Present() {
+		layers = in.stack(&buf)
+	}
 	grip := 0.0
 	for _, l := range layers {
 		grip += l.Thickness
@@ -197,7 +200,9 @@ func ComputeStiffness(in *Inputs) Stiffness {
 	s := Stiffness{Kb: kb, Km: km, C: c, Phi: n * c, Grip: grip,
 		kz: kz, sepF: 1 / (1 - n*c), invAs: 1 / in.Thread.StressArea}
 	s.Thermal = in.thermalMismatch() * kz // a drawn ΔT multiplies it per sample
-	s.pressInvArea, s.pressLimit = in.governingFace()
+	if in.NLayers > 0 && (in.Layers[0].PressureLimit > 0 || in.Layers[in.NLayers-1].PressureLimit > 0 || in.Washer.PressureLimit > 0 || in.NutWasher.PressureLimit > 0) {
+		s.pressInvArea, s.pressLimit = in.governingFace()
+	}
 	if in.Tapped {
 		s.shearExt, s.shearInt = ThreadShearAreas(in.Thread, in.Engagement)
 	}
