@@ -177,20 +177,22 @@ type Stiffness struct {
 // (Shigley §8-7: C = kb/(kb + km)). The load factor Φ = n·C applies the VDI
 // 2230 load-introduction factor n (1 when the load acts under head and nut).
 func ComputeStiffness(in *Inputs) Stiffness {
-	layers := in.Layers[:in.NLayers]
-	var buf [MaxLayers + 2]Layer
+	var grip, km float64
 	if in.Tapped || in.Washer.Present() || in.NutWasher.Present() {
-		layers = in.stack(&buf)
+		grip, km = stackedGrip(in)
+	} else {
+		layers := in.Layers[:in.NLayers]
+		for _, l := range layers {
+			grip += l.Thickness
+		}
+		if in.MemberStiffness == 0 {
+			km = memberStiffness(in, layers, grip)
+		}
 	}
-	grip := 0.0
-	for _, l := range layers {
-		grip += l.Thickness
+	if in.MemberStiffness != 0 {
+		km = in.MemberStiffness
 	}
 	kb := BoltStiffness(in.Thread.NominalArea, in.Thread.StressArea, in.BoltModulus, in.ShankInGrip, grip-in.ShankInGrip)
-	km := in.MemberStiffness
-	if km == 0 {
-		km = memberStiffness(in, layers, grip)
-	}
 	c := kb / (kb + km)
 	n := in.LoadIntroduction
 	if n == 0 {
@@ -207,6 +209,20 @@ func ComputeStiffness(in *Inputs) Stiffness {
 		s.shearExt, s.shearInt = ThreadShearAreas(in.Thread, in.Engagement)
 	}
 	return s
+}
+
+// stackedGrip returns the stiffness grip and the member stiffness of a joint
+// with washers or a tapped hole (the layers of the stack).
+func stackedGrip(in *Inputs) (grip, km float64) {
+	var buf [MaxLayers + 2]Layer
+	layers := in.stack(&buf)
+	for _, l := range layers {
+		grip += l.Thickness
+	}
+	if in.MemberStiffness == 0 {
+		km = memberStiffness(in, layers, grip)
+	}
+	return grip, km
 }
 
 // thermalMismatch returns Σ αi·ti − αb·lk over the clamped layers and
