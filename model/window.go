@@ -3,6 +3,8 @@ package model
 import (
 	"fmt"
 	"math"
+
+	"boltrisk/model/units"
 )
 
 // Window is the range of residual preload in which the tension-side modes
@@ -56,18 +58,21 @@ type Warning struct {
 
 func (w Warning) String() string { return w.Field + ": " + w.Message }
 
-// Check returns warnings for a joint's nominal values.
-func Check(in *Inputs) []Warning {
+// Check returns warnings for a joint's nominal values, with quantities in
+// the display units sys.
+func Check(in *Inputs, sys units.System) []Warning {
 	var ws []Warning
 	add := func(field, format string, args ...any) {
 		ws = append(ws, Warning{field, fmt.Sprintf(format, args...)})
 	}
+	L := func(v float64) string { return sys.Format(v, units.Length) }
+	F := func(v float64) string { return sys.Format(v, units.Force) }
 	d := in.Thread.D
 	if in.ShearLoad > 0 && in.EdgeDistance > 0 && in.EdgeDistance < 1.5*d {
-		add("plate.edge_distance", "%.4g mm is below 1.5·d = %.4g mm (common practice minimum against shear-out)", in.EdgeDistance, 1.5*d)
+		add("plate.edge_distance", "%s is below 1.5·d = %s (common practice minimum against shear-out)", L(in.EdgeDistance), L(1.5*d))
 	}
 	if in.ShearLoad > 0 && in.ShearRule == EN1993 && in.EdgeDistance > 0 && in.EdgeDistance < 1.2*in.HoleDia {
-		add("plate.edge_distance", "%.4g mm is below the EN 1993-1-8 Table 3.3 minimum 1.2·d0 = %.4g mm", in.EdgeDistance, 1.2*in.HoleDia)
+		add("plate.edge_distance", "%s is below the EN 1993-1-8 Table 3.3 minimum 1.2·d0 = %s", L(in.EdgeDistance), L(1.2*in.HoleDia))
 	}
 	if in.Method == NutFactorMethod && (in.NutFactor < 0.08 || in.NutFactor > 0.40) {
 		add("tightening.nut_factor", "%.3g lies outside 0.08–0.40, the range of published nut factors for steel fasteners (Shigley Table 8-15)", in.NutFactor)
@@ -76,7 +81,7 @@ func Check(in *Inputs) []Warning {
 		add("tightening.nut_factor", "%.3g is below the lead term alone (P/(2π·d) = %.3g); thread torsion taken as the lead term only", in.NutFactor, in.Thread.Pitch/twoPi/d)
 	}
 	if in.Criterion == Amplitude && d > 40 {
-		add("bolt.thread", "the VDI 2230 endurance limit is stated for d ≤ 40 mm; d = %.4g mm", d)
+		add("bolt.thread", "the VDI 2230 endurance limit is stated for d ≤ 40 mm; d = %s", L(d))
 	}
 	if in.Tensile > 0 && in.Preload > 0 && in.Method == DirectPreload && in.Preload/in.Thread.StressArea >= in.Tensile {
 		add("tightening.preload", "preload stress reaches the tensile strength")
@@ -84,11 +89,11 @@ func Check(in *Inputs) []Warning {
 	var o Outcome
 	Evaluate(in, &o)
 	if !(o.Bolt.Preload > 0) {
-		add("tightening.embedding", "no preload remains after embedding and relaxation (assembly preload %.4g N): the joint is loose", o.Bolt.AssemblyPreload)
+		add("tightening.embedding", "no preload remains after embedding, relaxation and the service temperature change (assembly preload %s): the joint is loose", F(o.Bolt.AssemblyPreload))
 	}
 	w := PreloadWindow(in)
 	if w.Lower > w.Upper {
-		add("loads", "no preload satisfies both the lower limit %.4g N (separation/slip) and the upper limit %.4g N (proof/assembly yield)", w.Lower, w.Upper)
+		add("loads", "no preload satisfies both the lower limit %s (separation/slip) and the upper limit %s (proof/assembly yield)", F(w.Lower), F(w.Upper))
 	}
 	return ws
 }

@@ -143,7 +143,7 @@ func (b *builder) check() error {
 			return b.p.errf(0, "", "", "mode %s gives no number for these inputs; please check the geometry", m.Key())
 		}
 	}
-	b.s.Warnings = append(b.s.Warnings, model.Check(b.in)...)
+	b.s.Warnings = append(b.s.Warnings, model.Check(b.in, b.s.Units)...)
 	return nil
 }
 

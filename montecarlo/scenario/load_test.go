@@ -404,6 +404,7 @@ func TestLoaderWarnings(t *testing.T) {
 		{"metric thread, inch class", `class: "10.9"`, "class: SAE 5\n  proof_strength: 585 MPa", "bolt.class", "inch-series class"},
 		{"pitch below EN minimum", "  width: 80 mm\n", "  width: 80 mm\n  resistance: en1993\n  bolts_across: 2\n  pitch: 25 mm\n  gauge: 40 mm\n", "plate.pitch", "Table 3.3 minimum p1 = 2.2·d0 = 28.60 mm"},
 		{"nut class below the bolt's", "  count: 4\n", "  count: 4\n  nut: {class: \"8\"}\n", "bolt.nut.class", "may strip"},
+		{"US units in warnings", "edge_distance: 25 mm\n  width: 80 mm\n", "edge_distance: 16 mm\n  width: 80 mm\nunits: us\n", "plate.edge_distance", "0.6299 in is below 1.5·d = 0.7087 in"},
 	} {
 		s, err := Parse("w.yaml", []byte(strings.Replace(base, test.old, test.new, 1)))
 		if err != nil {
