@@ -11,8 +11,10 @@ const (
 	// FrictionMethod: FM = T / (P/(2π) + 0.577·d2·μG + (DKm/2)·μK)
 	// (VDI 2230-1 / ISO 16047 form).
 	FrictionMethod
-	// DirectPreload: preload given directly (tension-controlled methods);
-	// no thread torsion.
+	// DirectPreload: preload given directly (angle-controlled, ultrasonic or
+	// tension-controlled tightening). The nut is still turned, so the thread
+	// torsion MG = FM·(P/(2π) + 0.577·d2·μG) acts, except with a tensioner
+	// (Inputs.Tensioned).
 	DirectPreload
 )
 
@@ -83,9 +85,10 @@ type Inputs struct {
 	LoadIntroduction float64 // VDI 2230 load-introduction factor n (0: 1)
 
 	Method         TighteningMethod
+	Tensioned      bool    // DirectPreload by a tensioner: the nut is not turned under load, no thread torsion
 	Torque         float64 // tightening torque, N·mm
 	NutFactor      float64 // K
-	ThreadFriction float64 // μG
+	ThreadFriction float64 // μG (FrictionMethod, and the thread torsion of DirectPreload)
 	HeadFriction   float64 // μK
 	Preload        float64 // assembly preload for DirectPreload, N
 	Embedding      float64 // total embedding (settlement) fZ, mm
@@ -110,15 +113,69 @@ type Inputs struct {
 
 	Criterion Criterion
 	Endurance float64 // endurance strength Se (or σASV for Amplitude), MPa
+
+	// Washers under the head and under the nut (zero thickness: none).
+	Washer, NutWasher Washer
+
+	// Tapped hole (cap screw): the last layer is the tapped part, Engagement
+	// the length of thread engagement in it (mm), TappedShear the shear
+	// strength of its material (MPa).
+	Tapped      bool
+	Engagement  float64
+	TappedShear float64
+	// NutProof is the proof-load stress of the nut's ISO 898-2 property
+	// class, MPa (0: no nut check).
+	NutProof float64
+
+	// Service temperature change ΔT of bolt and members from assembly, K
+	// (positive: heated), and the bolt's expansion coefficient αb, 1/K.
+	TemperatureChange float64
+	BoltExpansion     float64
+
+	// Bolt group of a shear joint: rows in the load direction n1 (0: all
+	// bolts in one row, BoltsAcross wide), pitch p1 between rows and gauge
+	// p2 between columns, mm (0: not given: every bolt is taken as an end
+	// and edge bolt).
+	BoltsInLine float64
+	Pitch       float64
+	Gauge       float64
 }
 
-// Grip returns the clamped length, the sum of the layer thicknesses (mm).
+// Grip returns the clamp length lk (mm): the clamped layers and the
+// washers. For a tapped hole the tapped part is not clamped: lk is the
+// thickness h under the head. Shigley's stiffness grip l′ is
+// Stiffness.Grip.
 func (in *Inputs) Grip() float64 {
+	n := in.NLayers
+	if in.Tapped {
+		n--
+	}
 	g := 0.0
-	for _, l := range in.Layers[:in.NLayers] {
+	for _, l := range in.Layers[:n] {
 		g += l.Thickness
 	}
+	if in.Washer.Present() {
+		g += in.Washer.Thickness
+	}
+	if in.NutWasher.Present() && !in.Tapped {
+		g += in.NutWasher.Thickness
+	}
 	return g
+}
+
+// Rows returns the rows of the bolt group in the load direction (n1) and
+// the bolts in each row (n2).
+func (in *Inputs) Rows() (rows, across float64) {
+	n := float64(in.Bolts)
+	across = in.BoltsAcross
+	if across == 0 {
+		across = n
+	}
+	rows = in.BoltsInLine
+	if rows == 0 {
+		rows = n / across
+	}
+	return rows, across
 }
 
 // BoltResult is the state of one bolt after tightening and under the
@@ -127,8 +184,8 @@ type BoltResult struct {
 	AssemblyPreload float64 // FM, N
 	Preload         float64 // residual preload Fi after embedding and relaxation, N
 	ThreadTorque    float64 // thread torque in tightening MG, N·mm
-	BoltForce       float64 // largest bolt force Fi + Φ·Pmax, N
-	Clamp           float64 // residual clamp force Fi − (1 − Φ)·Pmax, N (negative once separated)
+	BoltForce       float64 // largest bolt force, N: Fi + Φ·Pmax, or Pmax once separated
+	Clamp           float64 // least clamp force Fi − (1 − Φ)·Pmax, N; 0 once separated
 	// Demand, capacity and activity of the bolt modes (AssemblyYield …
 	// Fatigue); the shear-side entries stay zero. Laid out as in Outcome so
 	// that a one-bolt joint can be read from either.
@@ -180,6 +237,11 @@ func failures(set ModeSet, active *[NumModes]bool, capacity, demand *[NumModes]f
 	return f
 }
 
+// threadShearRatio is the ultimate shear strength of bolt steel as a share
+// of its tensile strength, 0.6 (common practice; EN 1993-1-8 Table 3.4
+// uses αv = 0.6 for the shear of 4.6, 5.6 and 8.8 bolts).
+const threadShearRatio = 0.6
+
 const (
 	twoPi   = 2 * math.Pi
 	invSqr3 = 0.5773502691896258 // 1/√3: distortion-energy shear yield (Shigley Eq. 5-21); 1/(2·cos 30°) in the thread-torque term
@@ -209,7 +271,7 @@ func (in *Inputs) EquivalentFriction(k float64) float64 {
 // threadTorqueRatio returns MG/FM, the thread torque per unit assembly
 // preload: P/(2π) + 0.577·d2·μG, with μG the thread friction, or for the
 // nut-factor method the ISO 16047 total friction the nut factor implies
-// (taken as 0 when negative); 0 for direct preload (no torsion).
+// (taken as 0 when negative); 0 for a tensioner (no torsion).
 func (in *Inputs) threadTorqueRatio() float64 {
 	lead, thread, _ := in.torqueTerms()
 	mu := 0.0
@@ -219,7 +281,10 @@ func (in *Inputs) threadTorqueRatio() float64 {
 	case FrictionMethod:
 		mu = in.ThreadFriction
 	default:
-		return 0
+		if in.Tensioned {
+			return 0
+		}
+		mu = in.ThreadFriction
 	}
 	if mu < 0 {
 		mu = 0
@@ -270,27 +335,38 @@ func EvaluateBolt(in *Inputs, s *Stiffness, set ModeSet, b *BoltResult) {
 		invalid = !(in.ThreadFriction >= 0 && in.HeadFriction >= 0)
 	default:
 		fm = in.Preload
+		if torsion && !in.Tensioned {
+			lead, thread, _ := in.torqueTerms()
+			mg = fm * (lead + thread*math.Max(in.ThreadFriction, 0))
+		}
+		invalid = !(in.ThreadFriction >= 0)
 	}
 	invalid = invalid || !(fm >= 0 && fm < math.Inf(1)) || !(in.Endurance > 0 && in.Proof > 0 && in.Yield > 0 && in.Tensile > 0)
 
-	// Preload loss by embedding, FZ = fZ·kb·km/(kb + km) (VDI 2230-1), and relaxation.
-	fi := fm*(1-in.Relaxation) - in.Embedding*s.kz
+	// Preload loss by embedding, FZ = fZ·kb·km/(kb + km) (VDI 2230-1), and
+	// relaxation; change with the service temperature, ΔF = Thermal·ΔT.
+	fi := fm*(1-in.Relaxation) - in.Embedding*s.kz + in.TemperatureChange*s.Thermal
 	if fi < 0 {
 		fi = 0
 	}
 	phi := s.Phi
 	pmax, pmin := in.AxialMax, in.AxialMin
-	fb := fi + phi*pmax
+	// Closed joint: Fb = Fi + Φ·P, clamp Fi − (1 − Φ)·P (Shigley Eqs. 8-24,
+	// 8-25). Once P ≥ Fi/(1 − Φ) the members have separated: the bolt carries
+	// the whole external load, Fb = P, and the clamp force is 0 (Shigley §8-7).
+	fb, clamp := fi+phi*pmax, fi-(1-phi)*pmax
+	if clamp < 0 {
+		fb, clamp = pmax, 0
+	}
 
 	b.AssemblyPreload, b.Preload, b.ThreadTorque, b.BoltForce = fm, fi, mg, fb
-	b.Clamp = fi - (1-phi)*pmax
+	b.Clamp = clamp
 	b.Invalid = invalid
 	b.Active[AssemblyYield] = in.Method != DirectPreload || in.Preload > 0
 	b.Active[Proof] = true
 	b.Active[ServiceYield] = true
 	b.Active[Separation] = pmax > 0
 	b.Active[Fatigue] = pmax > pmin
-
 	if torsion {
 		d0 := in.StressDiameter()
 		d03 := d0 * d0 * d0
@@ -317,28 +393,72 @@ func EvaluateBolt(in *Inputs, s *Stiffness, set ModeSet, b *BoltResult) {
 	b.Capacity[Separation] = fi * s.sepF
 
 	// Fatigue on the load line through the preload stress σi.
-	if !set.Has(Fatigue) {
-		return
-	}
-	if pmax > pmin {
-		b.Demand[Fatigue] = phi * (pmax - pmin) * 0.5 * s.invAs
-		si, q := fi*s.invAs, 1.0 // q = 1: repeated loading 0…Pmax, the common case
-		if pmin != 0 {
-			q = (pmax + pmin) / (pmax - pmin)
-		}
-		if in.Criterion == Goodman {
-			// Inline form of StrengthAmplitude's Goodman case (Shigley Eq. 8-38).
-			sa := in.Endurance * (in.Tensile - si) / (in.Tensile + q*in.Endurance)
-			if !(sa > 0) {
-				sa = 0
+	if set.Has(Fatigue) {
+		if pmax > pmin {
+			si, q := fi*s.invAs, 1.0 // q = 1: repeated loading 0…Pmax, the common case
+			if clamp > 0 {
+				// Closed over the whole cycle: σa = Φ(Pmax − Pmin)/(2As) on the load
+				// line Sm = σi + q·Sa.
+				b.Demand[Fatigue] = phi * (pmax - pmin) * 0.5 * s.invAs
+				if pmin != 0 {
+					q = (pmax + pmin) / (pmax - pmin)
+				}
+			} else {
+				b.Demand[Fatigue], q = separatedCycle(fi, fb, phi, pmin, s.invAs)
 			}
-			b.Capacity[Fatigue] = sa
+			if in.Criterion == Goodman {
+				// Inline form of StrengthAmplitude's Goodman case (Shigley Eq. 8-38).
+				sa := in.Endurance * (in.Tensile - si) / (in.Tensile + q*in.Endurance)
+				if !(sa > 0) {
+					sa = 0
+				}
+				b.Capacity[Fatigue] = sa
+			} else {
+				b.Capacity[Fatigue] = StrengthAmplitude(in.Criterion, in.Endurance, in.Tensile, in.Proof, si, q)
+			}
 		} else {
-			b.Capacity[Fatigue] = StrengthAmplitude(in.Criterion, in.Endurance, in.Tensile, in.Proof, si, q)
+			b.Demand[Fatigue], b.Capacity[Fatigue] = 0, 0
 		}
-	} else {
-		b.Demand[Fatigue], b.Capacity[Fatigue] = 0, 0
 	}
+	if set&(1<<ThreadStripping|1<<HeadPressure) != 0 {
+		boltExtras(in, s, b, fm, fb)
+	}
+}
+
+// boltExtras evaluates thread stripping and the surface pressure under
+// head, nut or washer, at the assembly preload and at the service maximum
+// (VDI 2230-1).
+func boltExtras(in *Inputs, s *Stiffness, b *BoltResult, fm, fb float64) {
+	b.Active[ThreadStripping] = in.Tapped || in.NutProof > 0
+	b.Active[HeadPressure] = s.pressLimit > 0
+	f := math.Max(fm, fb)
+	if b.Active[ThreadStripping] {
+		b.Demand[ThreadStripping] = f
+		if in.Tapped {
+			// The weaker of the bolt's thread (τ = threadShearRatio·Rm) and
+			// the tapped material's over the engaged length.
+			b.Capacity[ThreadStripping] = math.Min(threadShearRatio*in.Tensile*s.shearExt, in.TappedShear*s.shearInt)
+		} else {
+			// A nut of ISO 898-2 class withstands its proof load Sp,nut·As.
+			b.Capacity[ThreadStripping] = in.NutProof * in.Thread.StressArea
+		}
+	}
+	if b.Active[HeadPressure] {
+		b.Demand[HeadPressure] = f * s.pressInvArea
+		b.Capacity[HeadPressure] = s.pressLimit
+	}
+}
+
+// separatedCycle returns σa and the load-line slope q of a cycle that
+// separates at Pmax (and perhaps at Pmin too): the cycle of the physical bolt
+// force Fb(Pmin) … Fb(Pmax) = Pmax, and the load line from σi through its
+// point (σm, σa).
+func separatedCycle(fi, fb, phi, pmin, invAs float64) (sa, q float64) {
+	fmin := fi + phi*pmin
+	if pmin*(1-phi) > fi {
+		fmin = pmin
+	}
+	return (fb - fmin) * 0.5 * invAs, (fb + fmin - 2*fi) / (fb - fmin)
 }
 
 // StrengthAmplitude returns the strength amplitude Sa where the load line
@@ -413,18 +533,33 @@ func EvaluateJoint(in *Inputs, s *Stiffness, bolts []BoltResult, out *Outcome) {
 		}
 		w := 0
 		active := bolts[0].Active[m]
+		if !active && !anyActive(bolts, m) {
+			// A mode no bolt has (a tapped hole's stripping on a through-bolt):
+			// no search.
+			out.Demand[m], out.Capacity[m], out.Active[m] = bolts[0].Demand[m], bolts[0].Capacity[m], false
+			continue
+		}
+		active = true
 		for i := 1; i < len(bolts); i++ {
 			// bolt i is worse when cap_i/dem_i < cap_w/dem_w (demands are positive).
 			if bolts[i].Capacity[m]*bolts[w].Demand[m] < bolts[w].Capacity[m]*bolts[i].Demand[m] {
 				w = i
 			}
-			active = active || bolts[i].Active[m]
 		}
 		out.Demand[m] = bolts[w].Demand[m]
 		out.Capacity[m] = bolts[w].Capacity[m]
 		out.Active[m] = active
 	}
 	JointModes(in, ClampSum(in, bolts), out)
+}
+
+func anyActive(bolts []BoltResult, m Mode) bool {
+	for i := range bolts {
+		if bolts[i].Active[m] {
+			return true
+		}
+	}
+	return false
 }
 
 // ClampSum returns the summed residual clamp force of the joint's bolts
@@ -441,101 +576,6 @@ func ClampSum(in *Inputs, bolts []BoltResult) float64 {
 		clamp *= float64(in.Bolts) / float64(len(bolts))
 	}
 	return clamp
-}
-
-// JointModes fills the modes decided once for the whole joint (the shear
-// side, for the chosen resistance rule) from the inputs and the summed
-// clamp force; it leaves the bolt modes of out alone. It does not allocate.
-func JointModes(in *Inputs, clamp float64, out *Outcome) {
-	out.ClampSum = clamp
-	v := in.ShearLoad
-	if !(v > 0) {
-		if out.shear {
-			for m := range NumModes {
-				if !BoltModes.Has(m) {
-					out.Active[m] = false
-					out.Demand[m], out.Capacity[m] = 0, 0
-				}
-			}
-			out.shear = false
-		}
-		return
-	}
-	out.shear = true
-	for m := range NumModes {
-		if !BoltModes.Has(m) {
-			out.Active[m] = false
-		}
-	}
-	n := float64(in.Bolts)
-	planes := in.ShearPlanes
-	d, t, dh := in.Thread.D, in.PlateThickness, in.HoleDia
-	across := in.BoltsAcross
-	if across == 0 {
-		across = n
-	}
-	anet := (in.PlateWidth - across*dh) * t
-	e1, e2 := in.EdgeDistance, in.SideDistance
-	if e2 == 0 {
-		e2 = e1
-	}
-	switch in.ShearRule {
-	case YieldRule:
-		a := in.Thread.NominalArea
-		if in.ThreadsInShearPlane {
-			a = in.Thread.MinorArea
-		}
-		out.set(BoltShear, v, n*planes*a*invSqr3*in.Yield)
-		out.set(BoltBearing, v, n*d*t*in.Yield)
-		out.set(PlateBearing, v, n*d*t*in.PlateYield)
-		if in.PlateWidth > 0 {
-			out.set(NetSection, v, anet*in.PlateYield)
-		}
-		if e1 > 0 {
-			out.set(TearOut, v, n*2*(e1-d/2)*t*invSqr3*in.PlateYield)
-		}
-	case EN1993:
-		// EN 1993-1-8:2005 Table 3.4, γM2 = 1.
-		fub := in.FubNominal
-		if fub == 0 {
-			fub = in.Tensile
-		}
-		a, av := in.Thread.NominalArea, 0.6
-		if in.ThreadsInShearPlane {
-			a, av = in.Thread.StressArea, in.AlphaV
-			if av == 0 {
-				av = 0.5
-			}
-		}
-		out.set(BoltShear, v, n*planes*av*fub*a)
-		k1 := math.Min(2.8*e2/dh-1.7, 2.5)
-		ab := math.Min(math.Min(e1/(3*dh), fub/in.PlateTensile), 1)
-		out.set(PlateBearing, v, n*k1*ab*in.PlateTensile*d*t)
-		if in.PlateWidth > 0 {
-			out.set(NetSection, v, 0.9*anet*in.PlateTensile)
-		}
-	case AISC360:
-		// AISC 360-16 J3.6 (Fnv = 0.450 Fu threads included, 0.563 Fu excluded,
-		// Table J3.2 "threaded parts") and J3.10 (bearing 2.4·d·t·Fu, tear-out
-		// 1.2·lc·t·Fu); J4.1 net-section rupture Fu·An.
-		fnv := 0.563 * in.Tensile
-		if in.ThreadsInShearPlane {
-			fnv = 0.450 * in.Tensile
-		}
-		out.set(BoltShear, v, n*planes*fnv*in.Thread.NominalArea)
-		out.set(PlateBearing, v, n*2.4*d*t*in.PlateTensile)
-		if e1 > 0 {
-			out.set(TearOut, v, n*1.2*(e1-dh/2)*t*in.PlateTensile)
-		}
-		if in.PlateWidth > 0 {
-			out.set(NetSection, v, anet*in.PlateTensile)
-		}
-	}
-	if in.SlipFactor > 0 {
-		// Slip: V ≥ μ·m·ΣFclamp (EN 1993-1-8 §3.9 with ks = 1, γM3 = 1 and the
-		// actual clamp force in place of Fp,C).
-		out.set(Slip, v, in.SlipFactor*planes*clamp)
-	}
 }
 
 func (o *Outcome) set(m Mode, demand, capacity float64) {

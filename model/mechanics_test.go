@@ -194,3 +194,71 @@ func TestEmbeddingLoss(t *testing.T) {
 	model.Evaluate(&in, &o)
 	near(t, "Fi after relaxation", o.Bolt.Preload, 50000*0.95-0.011*s.Kb*s.Km/(s.Kb+s.Km), 1e-12)
 }
+
+func TestSeparatedJoint(t *testing.T) {
+	t.Parallel()
+	// Shigley §8-7 (confirmed): once P ≥ Fi/(1 − C) the members no longer
+	// touch, the bolt carries the whole external load, Fb = P, and the clamp
+	// force is 0. R1 with a direct preload of 10 kN under 50 kN per bolt
+	// (C = 0.2017 < 1 − 10/50): Fb = 50 kN, not Fi + C·P = 20.1 kN.
+	in := r1()
+	in.Method, in.Torque, in.Preload = model.DirectPreload, 0, 10e3
+	in.AxialMax = 50e3
+	var o model.Outcome
+	model.Evaluate(&in, &o)
+	near(t, "Fb separated", o.Bolt.BoltForce, 50e3, 1e-12)
+	if o.Bolt.Clamp != 0 {
+		t.Errorf("clamp force after separation: got %g N, want 0", o.Bolt.Clamp)
+	}
+	// Proof demand is the physical bolt force (Shigley Eq. 8-28 with Fb = P).
+	near(t, "proof demand", o.Demand[model.Proof], 50e3, 1e-12)
+	if o.Demand[model.ServiceYield] < 50e3/in.Thread.StressArea {
+		t.Error("service yield must use the physical bolt force")
+	}
+	if !o.Fails(model.Separation) {
+		t.Error("separation must fail at P = 50 kN > Fi/(1 − C)")
+	}
+	// Fatigue over the actual cycle 5 … 50 kN, which separates at the top:
+	// Fb(5 kN) = Fi + C·5 kN (closed), Fb(50 kN) = 50 kN; σa, σm from these,
+	// Goodman on the load line from σi through (σm, σa) (Shigley Eq. 8-38
+	// with q = (σm − σi)/σa), computed by hand here.
+	in.AxialMin = 5e3
+	model.Evaluate(&in, &o)
+	c, as := o.Stiffness.C, in.Thread.StressArea
+	fmin, fmax := 10e3+c*5e3, 50e3
+	sa := (fmax - fmin) / (2 * as)
+	sm := (fmax + fmin) / (2 * as)
+	si := 10e3 / as
+	want := 162 * (1040 - si) / (1040*sa + 162*(sm-si)) // nf, Eq. 8-38
+	near(t, "σa separated cycle", o.Demand[model.Fatigue], sa, 1e-12)
+	near(t, "nf separated cycle", o.SafetyFactor(model.Fatigue), want, 1e-12)
+	// A loose bolt (Fi = 0) carries the external load alone: σa = (Pmax − Pmin)/(2As).
+	in.Preload = 0
+	in.Method = model.DirectPreload
+	model.Evaluate(&in, &o)
+	near(t, "σa loose", o.Demand[model.Fatigue], 45e3/(2*as), 1e-12)
+	near(t, "nf loose", o.SafetyFactor(model.Fatigue), 162*1040/(1040*45e3/(2*as)+162*(55e3/(2*as))), 1e-12)
+}
+
+func TestBeneficialPreloadWithLoadIntroduction(t *testing.T) {
+	t.Parallel()
+	// Shigley Eq. 8-50 with the load factor Φ = n·C: preload improves the
+	// Goodman factor up to Fi = (1 − Φ)·Sut·At, where Eq. 8-48 (with Φ in place
+	// of C) equals the unpreloaded factor of Eq. 8-49. Worked by hand for R1
+	// with n = 0.5.
+	in := r1()
+	in.LoadIntroduction = 0.5
+	s := model.ComputeStiffness(&in)
+	at := in.Thread.StressArea
+	fi := model.PreloadWindow(&in).BeneficialMax
+	near(t, "beneficial max", fi, (1-0.5*s.C)*1040*at, 1e-12)
+	nf := 2 * 162 * (1040*at - fi) / (s.Phi * 30e3 * (1040 + 162)) // Eq. 8-48
+	nf0 := 2 * 162 * 1040 * at / (30e3 * (1040 + 162))             // Eq. 8-49
+	near(t, "nf at the beneficial preload = nf unpreloaded", nf, nf0, 1e-12)
+	// The model's own factor at that preload (closed joint) agrees.
+	in.Method, in.Torque, in.NutFactor, in.Preload = model.DirectPreload, 0, 0, fi
+	in.Proof, in.Yield, in.Tensile = 5000, 5000, 1040 // keep the bolt elastic for the check
+	var o model.Outcome
+	model.Evaluate(&in, &o)
+	near(t, "model nf", o.SafetyFactor(model.Fatigue), nf0, 1e-9)
+}

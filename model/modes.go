@@ -9,18 +9,22 @@ type Mode int
 // The failure modes, in report order. A mode fails when its capacity does
 // not exceed its demand ([Failed]).
 const (
-	AssemblyYield Mode = iota // von Mises stress in tightening (tension + thread torsion) reaches yield
-	Proof                     // bolt force Fi + Φ·Pmax reaches the proof load Sp·As
-	ServiceYield              // von Mises stress in service (tension + residual torsion) reaches yield
-	Separation                // external load reaches the separation load Fi/(1 − Φ)
-	Fatigue                   // alternating stress reaches the strength amplitude on the load line
-	BoltShear                 // shear on the bolt cross-section reaches its shear strength
-	BoltBearing               // bearing pressure on the bolt reaches its yield
-	PlateBearing              // bearing pressure on the plate reaches its capacity
-	NetSection                // stress on the plate net section reaches its capacity
-	TearOut                   // shear-out of the plate between hole and edge
-	Slip                      // shear load reaches the friction capacity of the clamp force
-	NumModes                  // number of modes; not a mode
+	AssemblyYield   Mode = iota // von Mises stress in tightening (tension + thread torsion) reaches yield
+	Proof                       // bolt force reaches the proof load Sp·As
+	ServiceYield                // von Mises stress in service (tension + residual torsion) reaches yield
+	Separation                  // external load reaches the separation load Fi/(1 − Φ)
+	ThreadStripping             // bolt force reaches the stripping force of the engaged threads (tapped hole or nut)
+	HeadPressure                // pressure under head, nut or washer reaches the limiting surface pressure
+	Fatigue                     // alternating stress reaches the strength amplitude on the load line
+	BoltShear                   // shear on the bolt cross-section reaches its shear strength
+	BoltBearing                 // bearing pressure on the bolt reaches its yield
+	PlateBearing                // bearing pressure on the plate reaches its capacity
+	NetSection                  // stress on the plate net section reaches its capacity
+	TearOut                     // shear-out of the plate between hole and edge or the next hole
+	BlockTearing                // a block of the plate tears out around the bolt group
+	TensionShear                // interaction of external tension and shear on the bolt
+	Slip                        // shear load reaches the friction capacity of the clamp force
+	NumModes                    // number of modes; not a mode
 )
 
 // Scope says where a mode is decided.
@@ -51,23 +55,31 @@ var modeTable = [NumModes]ModeInfo{
 	AssemblyYield: {"assembly_yield", "Yield in assembly", units.Stress, PerBolt,
 		"von Mises stress √(σ² + 3τ²) in tightening, σ = FM/As, τ = MG/(π·d0³/12), reaches Rp0.2", "VDI 2230-1 (FMzul at ν = 1)"},
 	Proof: {"proof", "Proof load", units.Force, PerBolt,
-		"bolt force Fi + Φ·Pmax reaches the proof load Sp·As", "Shigley Eq. 8-28"},
+		"bolt force Fb = Fi + Φ·Pmax (Pmax once separated) reaches the proof load Sp·As", "Shigley Eqs. 8-28, §8-7"},
 	ServiceYield: {"service_yield", "Yield in service", units.Stress, PerBolt,
-		"√(σ² + 3(kτ·τ)²) in service, σ = (Fi + Φ·Pmax)/As, τ on the elastic π·d0³/16, reaches yield", "VDI 2230-1"},
+		"√(σ² + 3(kτ·τ)²) in service, σ = Fb/As, τ on the elastic π·d0³/16, reaches yield", "VDI 2230-1"},
 	Separation: {"separation", "Separation", units.Force, PerBolt,
 		"Pmax ≥ Fi/(1 − Φ)", "Shigley Eq. 8-30"},
+	ThreadStripping: {"thread_stripping", "Thread stripping", units.Force, PerBolt,
+		"max(FM, Fb) reaches the stripping force: min(0.6·Rm·ASs, τ·ASn) of bolt and tapped thread over the engagement, or the nut's proof load Sp,nut·As", "FED-STD-H28/2B shear areas; ISO 898-2"},
+	HeadPressure: {"head_pressure", "Surface pressure", units.Stress, PerBolt,
+		"max(FM, Fb)/Ap under head, nut or washer, Ap = π/4·(D² − dh²), reaches the limiting surface pressure pG", "VDI 2230-1 Table A9"},
 	Fatigue: {"fatigue", "Fatigue", units.Stress, PerBolt,
-		"strength amplitude on the preload load line (Goodman, Gerber, ASME-elliptic or plain amplitude) reaches σa = Φ(Pmax − Pmin)/(2As)", "Shigley Eqs. 8-38, 8-45 to 8-47"},
+		"strength amplitude on the preload load line (Goodman, Gerber, ASME-elliptic or plain amplitude) reaches σa of the bolt force over the cycle, Φ(Pmax − Pmin)/(2As) while closed", "Shigley Eqs. 8-38, 8-45 to 8-47"},
 	BoltShear: {"bolt_shear", "Bolt shear", units.Force, PerJoint,
-		"shear on the shank (πd²/4) or, with threads in the plane, the root area reaches the shear strength", "plate.resistance rule"},
+		"shear on the shank (πd²/4) or, with threads in the plane, the root area reaches the shear strength (long joints reduced)", "plate.resistance rule"},
 	BoltBearing: {"bolt_bearing", "Bolt bearing", units.Force, PerJoint,
 		"V/(n·d·t) reaches the bolt's yield (yield rule only)", "Shigley §8-12"},
 	PlateBearing: {"plate_bearing", "Plate bearing", units.Force, PerJoint,
-		"bearing on the plate reaches its capacity", "plate.resistance rule"},
+		"bearing on the plate reaches the group's capacity (end and inner bolts)", "plate.resistance rule"},
 	NetSection: {"net_section", "Net section", units.Force, PerJoint,
-		"V on the net section (w − n_across·d_hole)·t reaches its capacity", "plate.resistance rule"},
+		"V on the net section (w − n_across·d_net)·t reaches its capacity", "plate.resistance rule"},
 	TearOut: {"tear_out", "Tear-out", units.Force, PerJoint,
-		"shear-out between hole and edge", "plate.resistance rule"},
+		"shear-out between each hole and the edge or the next hole", "plate.resistance rule"},
+	BlockTearing: {"block_tearing", "Block tearing", units.Force, PerJoint,
+		"V reaches the least block-tearing resistance of the bolt group (tension area Ant, shear areas Anv, Agv)", "EN 1993-1-8 §3.10.2; AISC 360-16 J4.3"},
+	TensionShear: {"tension_shear", "Tension with shear", units.None, PerJoint,
+		"interaction of the external tension Ft and the shear per bolt reaches 1", "EN 1993-1-8 Table 3.4; AISC 360-16 J3.7"},
 	Slip: {"slip", "Slip", units.Force, PerJoint,
 		"V ≥ μ·m·Σ(Fi − (1 − Φ)·Pmax) over the bolts (clamp force after the axial load)", "EN 1993-1-8 §3.9 with the actual clamp force"},
 }
@@ -96,7 +108,7 @@ func (m Mode) IsBolt() bool { return modeTable[m].Scope == PerBolt }
 func Failed(capacity, demand float64) bool { return capacity <= demand }
 
 // ModeSet is a set of modes, one bit per mode.
-type ModeSet uint16
+type ModeSet uint32
 
 // AllModes holds every mode.
 const AllModes ModeSet = 1<<NumModes - 1

@@ -1,6 +1,10 @@
 package model_test
 
-import "boltrisk/model"
+import (
+	"math"
+
+	"boltrisk/model"
+)
 
 import "testing"
 
@@ -89,5 +93,51 @@ func TestLookupThreadErrors(t *testing.T) {
 		if _, err := model.LookupThread(name); err == nil {
 			t.Errorf("LookupThread(%q): want error", name)
 		}
+	}
+}
+
+func TestCatalogueReach(t *testing.T) {
+	t.Parallel()
+	const in2 = 645.16
+	// Shigley Table 8-2 (numbered sizes from memory): #10-24 At 0.0175 in²,
+	// #10-32 0.0200, #4-40 0.00604, #12-24 0.0242.
+	for _, test := range []struct {
+		name string
+		at   float64
+	}{
+		{"#10-24 UNC", 0.0175}, {"10-32", 0.0200}, {"No. 4-40", 0.00604}, {"#12-24", 0.0242},
+	} {
+		th, err := model.LookupThread(test.name)
+		if err != nil {
+			t.Fatalf("%s: %v", test.name, err)
+		}
+		near(t, test.name+" At", th.StressArea/in2, test.at, 0.006)
+	}
+	// Large unified (ASME B1.1, from memory): 2-4.5 UNC, 4-4 UNC; At by the
+	// ASME B1.1 formula 0.7854·(D − 0.9743/n)² (computed: 2.50 and 11.08 in²).
+	th, err := model.LookupThread("2-4.5 UNC")
+	if err != nil {
+		t.Fatal(err)
+	}
+	near(t, "2-4.5 At", th.StressArea/in2, 0.7854*math.Pow(2-0.9743/4.5, 2), 1e-9)
+	if th, err = model.LookupThread("4-4 UNC"); err != nil || math.Abs(th.D-101.6) > 1e-9 {
+		t.Errorf("4-4 UNC: %v %v", th, err)
+	}
+	// Metric M2–M64 coarse (ISO 261): M64 P = 6; As = π/4·(d − 0.938194·P)²
+	// (ISO 898-1 definition, computed: 2676 mm²); M2 P = 0.4: 2.07 mm².
+	th, _ = model.LookupThread("M64")
+	near(t, "M64 As", th.StressArea, math.Pi/4*math.Pow(64-0.938194*6, 2), 1e-6)
+	near(t, "M64 As value", th.StressArea, 2676, 0.001)
+	th, _ = model.LookupThread("M2")
+	near(t, "M2 As", th.StressArea, 2.07, 0.005)
+	// A user-defined thread uses the same basic profile.
+	c, err := model.CustomThread(42, 3, false)
+	if err != nil {
+		t.Fatal(err)
+	}
+	ref := model.MetricThread(42, 3)
+	near(t, "custom As", c.StressArea, ref.StressArea, 1e-12)
+	if _, err := model.CustomThread(10, 4, false); err == nil {
+		t.Error("pitch 4 mm on d = 10 mm: want an error")
 	}
 }

@@ -3,6 +3,8 @@ package model
 import (
 	"fmt"
 	"math"
+
+	"boltrisk/model/units"
 )
 
 // Window is the range of residual preload in which the tension-side modes
@@ -22,7 +24,8 @@ type Window struct {
 	AssemblyMax float64
 	// BeneficialMax is the largest preload for which preload still improves
 	// the Goodman factor of safety over an unpreloaded bolt,
-	// (1 − C)·Sut·At (Shigley Eq. 8-50).
+	// (1 − Φ)·Sut·At (Shigley Eq. 8-50 with the load factor Φ = n·C in
+	// place of C: at that preload the factor equals the unpreloaded one).
 	BeneficialMax float64
 	Lower, Upper  float64 // max of the lower limits, min of the upper limits
 }
@@ -39,10 +42,8 @@ func PreloadWindow(in *Inputs) Window {
 	}
 	w.ProofMax = in.Proof*as - s.Phi*pmax
 	// Torsion from the nominal tightening: MG/FM does not depend on FM.
-	d0 := in.StressDiameter()
-	k := in.threadTorqueRatio() * as / (math.Pi / 12 * d0 * d0 * d0)
-	w.AssemblyMax = as * in.Yield / math.Sqrt(1+3*k*k)
-	w.BeneficialMax = (1 - s.C) * in.Tensile * as
+	w.AssemblyMax = PermissibleAssemblyPreload(in, 1)
+	w.BeneficialMax = (1 - s.Phi) * in.Tensile * as
 	w.Lower = math.Max(w.SeparationMin, w.SlipMin)
 	w.Upper = math.Min(w.ProofMax, w.AssemblyMax)
 	return w
@@ -57,18 +58,21 @@ type Warning struct {
 
 func (w Warning) String() string { return w.Field + ": " + w.Message }
 
-// Check returns warnings for a joint's nominal values.
-func Check(in *Inputs) []Warning {
+// Check returns warnings for a joint's nominal values, with quantities in
+// the display units sys.
+func Check(in *Inputs, sys units.System) []Warning {
 	var ws []Warning
 	add := func(field, format string, args ...any) {
 		ws = append(ws, Warning{field, fmt.Sprintf(format, args...)})
 	}
+	L := func(v float64) string { return sys.Format(v, units.Length) }
+	F := func(v float64) string { return sys.Format(v, units.Force) }
 	d := in.Thread.D
 	if in.ShearLoad > 0 && in.EdgeDistance > 0 && in.EdgeDistance < 1.5*d {
-		add("plate.edge_distance", "%.4g mm is below 1.5·d = %.4g mm (common practice minimum against shear-out)", in.EdgeDistance, 1.5*d)
+		add("plate.edge_distance", "%s is below 1.5·d = %s (common practice minimum against shear-out)", L(in.EdgeDistance), L(1.5*d))
 	}
 	if in.ShearLoad > 0 && in.ShearRule == EN1993 && in.EdgeDistance > 0 && in.EdgeDistance < 1.2*in.HoleDia {
-		add("plate.edge_distance", "%.4g mm is below the EN 1993-1-8 Table 3.3 minimum 1.2·d0 = %.4g mm", in.EdgeDistance, 1.2*in.HoleDia)
+		add("plate.edge_distance", "%s is below the EN 1993-1-8 Table 3.3 minimum 1.2·d0 = %s", L(in.EdgeDistance), L(1.2*in.HoleDia))
 	}
 	if in.Method == NutFactorMethod && (in.NutFactor < 0.08 || in.NutFactor > 0.40) {
 		add("tightening.nut_factor", "%.3g lies outside 0.08–0.40, the range of published nut factors for steel fasteners (Shigley Table 8-15)", in.NutFactor)
@@ -77,7 +81,7 @@ func Check(in *Inputs) []Warning {
 		add("tightening.nut_factor", "%.3g is below the lead term alone (P/(2π·d) = %.3g); thread torsion taken as the lead term only", in.NutFactor, in.Thread.Pitch/twoPi/d)
 	}
 	if in.Criterion == Amplitude && d > 40 {
-		add("bolt.thread", "the VDI 2230 endurance limit is stated for d ≤ 40 mm; d = %.4g mm", d)
+		add("bolt.thread", "the VDI 2230 endurance limit is stated for d ≤ 40 mm; d = %s", L(d))
 	}
 	if in.Tensile > 0 && in.Preload > 0 && in.Method == DirectPreload && in.Preload/in.Thread.StressArea >= in.Tensile {
 		add("tightening.preload", "preload stress reaches the tensile strength")
@@ -85,11 +89,11 @@ func Check(in *Inputs) []Warning {
 	var o Outcome
 	Evaluate(in, &o)
 	if !(o.Bolt.Preload > 0) {
-		add("tightening.embedding", "no preload remains after embedding and relaxation (assembly preload %.4g N): the joint is loose", o.Bolt.AssemblyPreload)
+		add("tightening.embedding", "no preload remains after embedding, relaxation and the service temperature change (assembly preload %s): the joint is loose", F(o.Bolt.AssemblyPreload))
 	}
 	w := PreloadWindow(in)
 	if w.Lower > w.Upper {
-		add("loads", "no preload satisfies both the lower limit %.4g N (separation/slip) and the upper limit %.4g N (proof/assembly yield)", w.Lower, w.Upper)
+		add("loads", "no preload satisfies both the lower limit %s (separation/slip) and the upper limit %s (proof/assembly yield)", F(w.Lower), F(w.Upper))
 	}
 	return ws
 }

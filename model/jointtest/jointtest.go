@@ -27,9 +27,10 @@ func R1() model.Inputs {
 }
 
 // R1Preload returns R1 with the assembly preload given directly (a
-// tension-controlled tightening, no thread torsion): 40 kN.
+// tension-controlled tightening by a tensioner, no thread torsion): 40 kN.
 func R1Preload() model.Inputs {
 	in := R1()
 	in.Method, in.Torque, in.NutFactor, in.Preload = model.DirectPreload, 0, 0, 40e3
+	in.Tensioned = true
 	return in
 }

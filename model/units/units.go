@@ -22,11 +22,17 @@ const (
 	Stress               // MPa
 	Torque               // N·mm
 	Stiffness            // N/mm
+	TempDiff             // temperature difference, K
+	Expansion            // linear thermal expansion coefficient, 1/K
 )
 
-var dimNames = [...]string{"number", "fraction", "force", "length", "stress", "torque", "stiffness"}
+var dimNames = [...]string{"number", "fraction", "force", "length", "stress", "torque", "stiffness", "temperature difference", "thermal expansion coefficient"}
 
 func (d Dim) String() string { return dimNames[d] }
+
+// Key is the dimension's name in machine-readable documents: its name with
+// underscores for spaces.
+func (d Dim) Key() string { return strings.ReplaceAll(dimNames[d], " ", "_") }
 
 // Conversion factors to the internal unit. Sources: 1 in = 25.4 mm (exact);
 // 1 lbf = 4.4482216152605 N (exact by definition of the pound-force);
@@ -46,6 +52,10 @@ var table = map[Dim]map[string]float64{
 	Torque: {"N*mm": 1, "N*m": 1e3, "kN*m": 1e6, "lbf*in": lbf * in, "lbf*ft": lbf * 12 * in,
 		"in*lbf": lbf * in, "ft*lbf": lbf * 12 * in},
 	Stiffness: {"N/mm": 1, "kN/mm": 1e3, "MN/m": 1e3, "lbf/in": lbf / in, "Mlbf/in": 1e6 * lbf / in},
+	// Differences: 1 °C of difference is 1 K, 1 °F is 5/9 K.
+	TempDiff: {"K": 1, "°C": 1, "degC": 1, "C": 1, "°F": 5.0 / 9, "degF": 5.0 / 9, "F": 5.0 / 9},
+	Expansion: {"1/K": 1, "/K": 1, "1/°C": 1, "/°C": 1, "um/m/K": 1e-6, "µm/m/K": 1e-6, "μm/m/K": 1e-6, "ppm/K": 1e-6,
+		"1/°F": 9.0 / 5, "/°F": 9.0 / 5, "uin/in/°F": 1e-6 * 9 / 5, "µin/in/°F": 1e-6 * 9 / 5, "ppm/°F": 1e-6 * 9 / 5},
 }
 
 // Units returns the unit names accepted for a dimension, sorted.
@@ -62,6 +72,10 @@ func Units(d Dim) []string {
 // "N m") to "N*m".
 func normUnit(u string) string {
 	u = strings.TrimSpace(u)
+	if strings.ContainsAny(u, "/°") {
+		// Quotients and temperature units keep their spelling ("µm/m/K", "1/°F").
+		return strings.ReplaceAll(u, " ", "")
+	}
 	for _, s := range []string{"·", "⋅", "-", " "} {
 		u = strings.ReplaceAll(u, s, "*")
 	}
@@ -129,6 +143,9 @@ func Parse(s string, d Dim) (float64, error) {
 	v, err := ParseNumber(num)
 	if err != nil {
 		return 0, err
+	}
+	if math.IsInf(v*f, 0) {
+		return 0, fmt.Errorf("%q is too large to represent", s)
 	}
 	return v * f, nil
 }
@@ -204,6 +221,16 @@ func (sys System) Unit(d Dim) (name string, factor float64) {
 			return "lbf/in", lbf / in
 		}
 		return "N/mm", 1
+	case TempDiff:
+		if sys == US {
+			return "°F", 5.0 / 9
+		}
+		return "K", 1
+	case Expansion:
+		if sys == US {
+			return "µin/in/°F", 1e-6 * 9 / 5
+		}
+		return "µm/m/K", 1e-6
 	}
 	return "", 1
 }

@@ -20,6 +20,10 @@ func TestParse(t *testing.T) {
 		{"1 lbf*in", Torque, 112.9848290}, {"1 lbf·ft", Torque, 1355.8179483}, {"120 N.m", Torque, 120000},
 		{"5%", Fraction, 0.05}, {"0.05", Fraction, 0.05}, {"3", None, 3}, {"1e3 N", Force, 1000},
 		{"2 kN/mm", Stiffness, 2000},
+		// Temperature differences: 1 °C = 1 K, 1 °F = 5/9 K (NIST SP 811).
+		{"80 K", TempDiff, 80}, {"-40 °C", TempDiff, -40}, {"144 °F", TempDiff, 80}, {"90 degF", TempDiff, 50},
+		{"12e-6 1/K", Expansion, 12e-6}, {"23.6 um/m/K", Expansion, 23.6e-6}, {"6.5 µin/in/°F", Expansion, 11.7e-6},
+		{"13e-6 /°C", Expansion, 13e-6},
 	} {
 		got, err := Parse(test.s, test.d)
 		if err != nil {
@@ -32,7 +36,7 @@ func TestParse(t *testing.T) {
 	for _, bad := range []struct {
 		s string
 		d Dim
-	}{{"30", Force}, {"30 kg", Force}, {"NaN N", Force}, {"Inf mm", Length}, {"", Force}, {"5 mm", None}, {"abc", None}, {"1.2.3 N", Force}} {
+	}{{"30", Force}, {"30 kg", Force}, {"NaN N", Force}, {"Inf mm", Length}, {"", Force}, {"5 mm", None}, {"abc", None}, {"1.2.3 N", Force}, {"1e308 N*m", Torque}, {"80 kg", TempDiff}} {
 		if _, err := Parse(bad.s, bad.d); err == nil {
 			t.Errorf("%q as %v: want error", bad.s, bad.d)
 		}

@@ -34,8 +34,74 @@ type NominalDoc struct {
 	Joint    JointDoc     `json:"joint"`
 	Inputs   []InputDoc   `json:"inputs"`
 	NominalBody
+	Checks
 	Warnings []string `json:"warnings"`
 	Caution  string   `json:"caution"`
+}
+
+// TighteningCheckDoc is the deterministic cross-check of the tightening a
+// reviewer does by hand (VDI 2230-1 form): the permissible assembly preload
+// FMzul and the tightening torque MA at utilisation ν = 0.9, the tightening
+// factor αA of the tool, and an embedding estimate from VDI 2230-1 Table 5.
+type TighteningCheckDoc struct {
+	Utilisation        float64 `json:"utilisation"`
+	ThreadFriction     float64 `json:"thread_friction"`
+	PermissiblePreload float64 `json:"permissible_assembly_preload_N"`
+	// TighteningTorque is MA at FMzul; 0 for preload-controlled methods.
+	TighteningTorque float64 `json:"tightening_torque_N_mm"`
+	Tool             string  `json:"tool,omitempty"`
+	AlphaALow        float64 `json:"alpha_a_low,omitempty"`
+	AlphaAHigh       float64 `json:"alpha_a_high,omitempty"`
+	AlphaASource     string  `json:"alpha_a_source,omitempty"`
+	// AlphaATool is (1 + t)/(1 − t) of the tool preset's own scatter ±t.
+	AlphaATool        float64 `json:"alpha_a_of_tool_scatter,omitempty"`
+	EmbeddingEstimate float64 `json:"embedding_estimate_mm"`
+	EmbeddingLoss     float64 `json:"embedding_estimate_loss_N"`
+	EmbeddingNote     string  `json:"embedding_estimate_note"`
+	EmbeddingUsed     float64 `json:"embedding_used_mm"`
+}
+
+// NotCheckedDoc is a mode (by key) or topic that was not evaluated, and why.
+type NotCheckedDoc struct {
+	Key    string `json:"key"`
+	Reason string `json:"reason"`
+}
+
+// Checks are the by-hand cross-checks of a scenario and what the tool did
+// not check.
+type Checks struct {
+	TighteningCheck TighteningCheckDoc `json:"tightening_check"`
+	NotChecked      []NotCheckedDoc    `json:"not_checked"`
+}
+
+// ChecksOf fills the checks of a scenario whose nominal stiffness is st.
+func ChecksOf(s *scenario.Scenario, st model.Stiffness) Checks {
+	c := Checks{TighteningCheck: tighteningCheck(s, st), NotChecked: []NotCheckedDoc{}}
+	for _, u := range s.NotChecked() {
+		c.NotChecked = append(c.NotChecked, NotCheckedDoc{Key: u.Key, Reason: u.Reason})
+	}
+	return c
+}
+
+// writeChecks writes the tightening cross-check and the not-checked list.
+func writeChecks(w io.Writer, c Checks, sys units.System) {
+	writeTighteningCheck(w, c.TighteningCheck, sys)
+	writeNotChecked(w, c.NotChecked)
+}
+
+// tighteningCheck fills the tightening cross-check of a scenario.
+func tighteningCheck(s *scenario.Scenario, st model.Stiffness) TighteningCheckDoc {
+	in := s.Inputs()
+	const nu = 0.9 // VDI 2230-1 utilisation of Rp0.2 in tightening
+	fm := model.PermissibleAssemblyPreload(in, nu)
+	fz := model.EmbeddingEstimateOf(in, s.Roughness, in.ShearLoad > 0)
+	d := TighteningCheckDoc{Utilisation: nu, ThreadFriction: in.TorsionFriction(), PermissiblePreload: fm,
+		TighteningTorque: in.TorqueFor(fm), EmbeddingEstimate: fz.Total, EmbeddingLoss: st.PreloadLoss(fz.Total),
+		EmbeddingNote: "VDI 2230-1 Table 5 (from memory): " + fz.Describe(), EmbeddingUsed: in.Embedding}
+	if t, ok := s.ToolPreset(); ok {
+		d.Tool, d.AlphaALow, d.AlphaAHigh, d.AlphaASource, d.AlphaATool = t.Name, t.AlphaALo, t.AlphaAHi, t.AlphaASource, t.AlphaA()
+	}
+	return d
 }
 
 // WindowDoc is the preload window in N.
@@ -91,7 +157,7 @@ func Body(n model.Nominal) NominalBody {
 // Nominal documents a scenario's nominal evaluation n.
 func Nominal(s *scenario.Scenario, n model.Nominal, version string) NominalDoc {
 	return NominalDoc{Envelope: envelope("nominal", version), Scenario: Info(s), Joint: Joint(s), Inputs: Inputs(s, units.SI),
-		NominalBody: Body(n), Warnings: warnings(s), Caution: Caution}
+		NominalBody: Body(n), Checks: ChecksOf(s, n.Outcome.Stiffness), Warnings: warnings(s), Caution: Caution}
 }
 
 // warnings lists the scenario's warnings.
@@ -108,6 +174,7 @@ func WriteNominal(w io.Writer, s *scenario.Scenario, doc NominalDoc, sys units.S
 	title(w, "nominal", s)
 	writeInputs(w, doc.Joint, Inputs(s, sys), sys)
 	writeNominalBody(w, doc.NominalBody, sys)
+	writeChecks(w, doc.Checks, sys)
 	writeWarnings(w, doc.Warnings)
 	WriteCaution(w)
 }
@@ -171,4 +238,55 @@ func modeRows(doc NominalBody, sys units.System) [][]string {
 		rows = append(rows, []string{md.Title, sys.Format(md.Demand, dim), sys.Format(md.Capacity, dim), fmtSF(md.SafetyFactor), res})
 	}
 	return rows
+}
+
+// tighteningRows are the rows of the tightening cross-check: quantity,
+// value and note, formatted in the display units.
+func tighteningRows(d TighteningCheckDoc, sys units.System) [][]string {
+	F := func(v float64) string { return sys.Format(v, units.Force) }
+	rows := [][]string{{"permissible assembly preload FMzul", F(d.PermissiblePreload), fmt.Sprintf("ν = %g, μG = %.3g", d.Utilisation, d.ThreadFriction)}}
+	if d.TighteningTorque > 0 {
+		rows = append(rows, []string{"tightening torque MA at FMzul", sys.Format(d.TighteningTorque, units.Torque), ""})
+	} else {
+		rows = append(rows, []string{"tightening torque MA at FMzul", "—", "preload-controlled tightening"})
+	}
+	if d.Tool != "" {
+		rows = append(rows, []string{"tightening factor αA, " + d.Tool, fmt.Sprintf("%.3g – %.3g", d.AlphaALow, d.AlphaAHigh),
+			fmt.Sprintf("VDI 2230-1 Table A8; the preset's own scatter alone gives %.3g", d.AlphaATool)})
+	}
+	rows = append(rows, []string{"embedding estimate fZ", sys.Format(d.EmbeddingEstimate, units.Length), F(d.EmbeddingLoss) + " lost; " + d.EmbeddingNote})
+	used := "none"
+	if d.EmbeddingUsed > 0 {
+		used = sys.Format(d.EmbeddingUsed, units.Length)
+	}
+	return append(rows, []string{"embedding used in the model", used, ""})
+}
+
+// writeTighteningCheck writes the tightening cross-check rows.
+func writeTighteningCheck(w io.Writer, d TighteningCheckDoc, sys units.System) {
+	fmt.Fprintln(w, "\nTightening cross-check (VDI 2230-1)")
+	tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', 0)
+	for _, r := range tighteningRows(d, sys) {
+		if r[2] == "" {
+			fmt.Fprintf(tw, "  %s\t%s\n", r[0], r[1])
+			continue
+		}
+		note := "(" + r[2] + ")"
+		if r[0] == "embedding estimate fZ" {
+			note = r[2]
+		}
+		fmt.Fprintf(tw, "  %s\t%s\t%s\n", r[0], r[1], note)
+	}
+	tw.Flush()
+}
+
+// writeNotChecked writes the modes and topics that were not evaluated.
+func writeNotChecked(w io.Writer, list []NotCheckedDoc) {
+	if len(list) == 0 {
+		return
+	}
+	fmt.Fprintln(w, "\nNot checked")
+	for _, u := range list {
+		fmt.Fprintf(w, "  - %s: %s\n", u.Key, u.Reason)
+	}
 }

@@ -61,7 +61,7 @@ func Info(s *scenario.Scenario) ScenarioInfo {
 type InputDoc struct {
 	Path      string `json:"path"`
 	Label     string `json:"label"`
-	Dimension string `json:"dimension" jsonschema:"enum=number,enum=fraction,enum=force,enum=length,enum=stress,enum=torque,enum=stiffness"`
+	Dimension string `json:"dimension" jsonschema:"enum=number,enum=fraction,enum=force,enum=length,enum=stress,enum=torque,enum=stiffness,enum=temperature_difference,enum=thermal_expansion_coefficient"`
 	// Unit of Nominal and of the distribution's parameters (internal SI);
 	// empty for plain numbers and fractions.
 	Unit         string   `json:"unit"`
@@ -143,7 +143,7 @@ func Inputs(s *scenario.Scenario, sys units.System) []InputDoc {
 	var out []InputDoc
 	in := s.Inputs()
 	for _, f := range s.Shown() {
-		d := InputDoc{Path: f.Path, Label: f.Label, Dimension: f.Dim.String(), Unit: internalUnit(f.Dim),
+		d := InputDoc{Path: f.Path, Label: f.Label, Dimension: f.Dim.Key(), Unit: internalUnit(f.Dim),
 			Nominal: *scenario.FieldPtr(in, f.Path), PerBolt: f.Role&montecarlo.PerBolt != 0,
 			Source: s.Sources[f.Path], Display: s.Describe(f.Path, sys)}
 		if v, ok := s.Uncertain(f.Path); ok {

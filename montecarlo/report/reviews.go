@@ -42,6 +42,21 @@ func nominalSections(doc NominalBody, sys units.System) []Section {
 	}
 }
 
+// checksSections are the tightening cross-check and the not-checked list.
+func checksSections(c Checks, sys units.System) []Section {
+	out := []Section{{Heading: "Tightening cross-check (VDI 2230-1)",
+		Table: &Table{Header: []string{"quantity", "value", "note"}, Rows: tighteningRows(c.TighteningCheck, sys)}}}
+	if len(c.NotChecked) > 0 {
+		t := &Table{Header: []string{"not checked", "why"}}
+		for _, u := range c.NotChecked {
+			t.Rows = append(t.Rows, []string{u.Key, u.Reason})
+		}
+		out = append(out, Section{Heading: "Not checked", Table: t,
+			Paragraphs: []string{"Modes this joint did not evaluate, and topics outside the tool; check them by other means."}})
+	}
+	return out
+}
+
 func probTable(modes []ProbDoc) *Table {
 	t := &Table{Header: []string{"mode", "probability", "c.o.v.", "interval", "failures / samples", "nominal SF"}}
 	for _, p := range modes {
@@ -101,6 +116,7 @@ func SimulationReview(s *scenario.Scenario, doc SimDoc, figs []Figure, prov Prov
 			"Percentiles from " + doc.PercentileSource + "; " + percentileNote(maxRankError(doc)) + "."}
 		r.Sections = append(r.Sections, Section{Heading: "Percentiles", Table: pt, Paragraphs: para})
 	}
+	r.Sections = append(r.Sections, checksSections(doc.Checks, sys)...)
 	r.Sections = append(r.Sections, warningsSection(doc.Warnings)...)
 	return r
 }

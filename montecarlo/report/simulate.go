@@ -99,6 +99,7 @@ type SimDoc struct {
 	DesignPoints     []DesignPointDoc `json:"design_points,omitempty"`
 	Diagnostics      []DiagnosticsDoc `json:"diagnostics,omitempty"`
 	Nominal          NominalBody      `json:"nominal"`
+	Checks
 	Warnings         []string         `json:"warnings"`
 	Caution          string           `json:"caution"`
 }
@@ -159,7 +160,7 @@ func Simulation(s *scenario.Scenario, r *montecarlo.Result, run Run, version str
 		BinnedSamples: r.Binned, BinStride: r.BinStride, Modes: modeProbs(r, true),
 		PercentileLevels: montecarlo.Levels, Percentiles: []PercentilesDoc{},
 		PreloadMean: r.PreloadMean, PreloadSD: r.PreloadSD,
-		Nominal: Body(r.Nominal), Warnings: warnings(s), Caution: Caution,
+		Nominal: Body(r.Nominal), Checks: ChecksOf(s, r.Nominal.Outcome.Stiffness), Warnings: warnings(s), Caution: Caution,
 	}
 	if r.HasDistributions() {
 		for q := montecarlo.QPreload; q < montecarlo.NumQuantities; q++ {

@@ -1,9 +1,13 @@
 package scenario
 
 import (
+	"errors"
+	"fmt"
 	"math"
 	"strconv"
 	"strings"
+
+	"go.yaml.in/yaml/v3"
 
 	"boltrisk/model"
 	"boltrisk/model/units"
@@ -35,27 +39,34 @@ type builder struct {
 	// enduranceNote is a caveat on a tabulated endurance strength, reported
 	// when fatigue is checked.
 	enduranceNote string
+	layerMats     []model.Material    // catalogue material of each layer (zero if given by modulus)
+	class         model.PropertyClass // the bolt's class (zero if strengths were given)
+	embeddingVDI  bool                // tightening.embedding: vdi2230
 }
 
 func (p *parser) buildOne(r rawDoc) (*Scenario, error) {
 	s := &Scenario{File: p.file, Sources: map[string]string{}}
 	b := &builder{p: p, r: r, s: s, in: &s.Problem.Base, given: map[string]bool{}}
 	for _, section := range []func() error{
-		b.header, b.registry, b.bolt, b.members, b.geometry, b.tightening, b.loads, b.fatigue, b.study, b.correlations, b.check,
+		b.header, b.registry, b.bolt, b.members, b.geometry, b.loads, b.tightening, b.service, b.fatigue, b.study, b.correlations, b.check,
 	} {
 		if err := section(); err != nil {
 			return nil, err
 		}
 	}
+	s.given = b.given
 	return s, nil
 }
 
 func (b *builder) lineOf(path string) int { return b.r.keyAt[path] }
 
+// fmt writes an internal value in the scenario's display units.
+func (b *builder) fmt(v float64, d units.Dim) string { return b.s.Units.Format(v, d) }
+
 // positive checks that the value of a registry field is > 0.
 func (b *builder) positive(path string, v float64) error {
 	if !(v > 0) {
-		return b.p.errf(b.lineOf(path), path, units.SI.Format(v, FieldDim(path)), "must be > 0")
+		return b.p.errf(b.lineOf(path), path, b.fmt(v, FieldDim(path)), "must be > 0")
 	}
 	return nil
 }
@@ -94,8 +105,20 @@ func (b *builder) registry() error {
 				continue
 			}
 		}
+		if f.path == "tightening.embedding" {
+			if n := b.r.vals[f.path]; n.Kind == yaml.ScalarNode && strings.EqualFold(strings.TrimSpace(n.Value), "vdi2230") {
+				b.embeddingVDI = true
+				continue
+			}
+		}
 		v, d, shared, err := b.p.value(b.r, f)
 		if err != nil {
+			if lim, ok := fieldLimits[f.path]; ok {
+				var e *Error
+				if errors.As(err, &e) {
+					e.Msg += fmt.Sprintf("; %s must lie within %s … %s", f.label, b.fmt(lim[0], f.dim), b.fmt(lim[1], f.dim))
+				}
+			}
 			return err
 		}
 		*f.ptr(b.in) = v
@@ -120,8 +143,15 @@ func (b *builder) check() error {
 			return b.p.errf(0, "", "", "mode %s gives no number for these inputs; please check the geometry", m.Key())
 		}
 	}
-	b.s.Warnings = append(b.s.Warnings, model.Check(b.in)...)
+	b.s.Warnings = append(b.s.Warnings, model.Check(b.in, b.s.Units)...)
 	return nil
+}
+
+// fieldLimits are the physical ranges (lo, hi] of inputs whose messages
+// name them.
+var fieldLimits = map[string][2]float64{
+	"tightening.torque":  {0, maxTorque},
+	"tightening.preload": {0, maxPreload},
 }
 
 func mustField(path string) field {
@@ -143,7 +173,7 @@ func (b *builder) physical(path string, lo, hi float64, msg string) error {
 		}
 	}
 	if !(v > lo && v <= hi) {
-		return b.p.errf(b.lineOf(path), path, b.s.Units.Format(v, f.dim), "%s", msg)
+		return b.p.errf(b.lineOf(path), path, b.fmt(v, f.dim), "%s", msg)
 	}
 	return nil
 }
@@ -155,4 +185,16 @@ func (b *builder) addVar(path string, d montecarlo.Dist, source string) {
 	*f.ptr(b.in) = d.Mean()
 	b.s.Problem.Vars = append(b.s.Problem.Vars, montecarlo.Var{Name: path, Dist: d, Role: f.role, Field: f.ptr})
 	b.s.Sources[path] = source
+}
+
+// SourceOf says where the value of an input came from: the file ("given"),
+// a preset, a class or a default; "" for an input the scenario does not use.
+func (s *Scenario) SourceOf(path string) string {
+	if src, ok := s.Sources[path]; ok {
+		return src
+	}
+	if s.given[path] {
+		return "given"
+	}
+	return ""
 }

@@ -53,8 +53,65 @@ var fields = func() []field {
 	for base[i].path != "members.stiffness" {
 		i++
 	}
-	return append(append(base[:i:i], layerFields()...), base[i:]...)
+	return append(append(base[:i:i], layerFields()...), append(base[i:], newFields()...)...)
 }()
+
+// Display rules of the newer inputs.
+func tapped(in *model.Inputs) bool       { return in.Tapped }
+func hasWasher(in *model.Inputs) bool    { return in.Washer.Present() }
+func hasNutWasher(in *model.Inputs) bool { return in.NutWasher.Present() }
+func heated(in *model.Inputs) bool       { return in.TemperatureChange != 0 }
+func hasNut(in *model.Inputs) bool       { return in.NutProof > 0 }
+func hasPattern(in *model.Inputs) bool   { return in.ShearLoad > 0 && in.Pitch > 0 }
+func hasGauge(in *model.Inputs) bool     { return in.ShearLoad > 0 && in.Gauge > 0 }
+
+// newFields are the inputs of washers, tapped holes, nuts, the service
+// temperature and the bolt pattern of shear joints.
+func newFields() []field {
+	var out []field
+	for _, w := range []struct {
+		key   string
+		label string
+		get   func(in *model.Inputs) *model.Washer
+		show  func(*model.Inputs) bool
+	}{
+		{"bolt.washer", "head washer", func(in *model.Inputs) *model.Washer { return &in.Washer }, hasWasher},
+		{"bolt.nut_washer", "nut washer", func(in *model.Inputs) *model.Washer { return &in.NutWasher }, hasNutWasher},
+	} {
+		get := w.get
+		out = append(out,
+			field{w.key + ".thickness", units.Length, stiffness, func(in *model.Inputs) *float64 { return &get(in).Thickness },
+				w.label + " thickness", "washer thickness (in the grip and the stiffness)", w.show},
+			field{w.key + ".outer_diameter", units.Length, stiffness, func(in *model.Inputs) *float64 { return &get(in).OuterDia },
+				w.label + " outer diameter", "washer outer diameter: the bearing diameter on the clamped part", w.show},
+			field{w.key + ".inner_diameter", units.Length, stiffness, func(in *model.Inputs) *float64 { return &get(in).InnerDia },
+				w.label + " inner diameter", "washer inner diameter (default: the hole diameter)", w.show},
+			field{w.key + ".modulus", units.Stress, stiffness, func(in *model.Inputs) *float64 { return &get(in).Modulus },
+				w.label + " modulus", "washer Young's modulus (default from material, else steel)", w.show},
+			field{w.key + ".expansion", units.Expansion, stiffness, func(in *model.Inputs) *float64 { return &get(in).Expansion },
+				w.label + " expansion", "washer thermal expansion coefficient (default from material)", func(in *model.Inputs) bool { return w.show(in) && heated(in) }},
+			field{w.key + ".pressure_limit", units.Stress, stiffness, func(in *model.Inputs) *float64 { return &get(in).PressureLimit },
+				w.label + " pG", "limiting surface pressure of the washer under the head or nut (default from material)", func(in *model.Inputs) bool { return w.show(in) && get(in).PressureLimit > 0 }},
+		)
+	}
+	out = append(out,
+		field{"bolt.expansion", units.Expansion, stiffness, func(in *model.Inputs) *float64 { return &in.BoltExpansion },
+			"bolt expansion", "thermal expansion coefficient of the bolt (default 12 µm/m/K steel, 16 µm/m/K stainless)", heated},
+		field{"bolt.nut.proof_strength", units.Stress, perBolt, func(in *model.Inputs) *float64 { return &in.NutProof },
+			"nut proof strength", "proof-load stress of the nut (default from bolt.nut.class, ISO 898-2)", hasNut},
+		field{"members.tapped.engagement", units.Length, stiffness, func(in *model.Inputs) *float64 { return &in.Engagement },
+			"thread engagement", "length of thread engagement in the tapped part (the last layer)", tapped},
+		field{"members.tapped.shear_strength", units.Stress, 0, func(in *model.Inputs) *float64 { return &in.TappedShear },
+			"tapped thread shear strength", "shear strength of the tapped material (default 0.6·Rm of the last layer's material)", tapped},
+		field{"service.temperature_change", units.TempDiff, 0, func(in *model.Inputs) *float64 { return &in.TemperatureChange },
+			"temperature change", "service temperature minus assembly temperature of bolt and members (positive: heated; default 0)", heated},
+		field{"plate.pitch", units.Length, shearSide, func(in *model.Inputs) *float64 { return &in.Pitch },
+			"pitch p1", "spacing of the bolt rows in the load direction p1", hasPattern},
+		field{"plate.gauge", units.Length, shearSide, func(in *model.Inputs) *float64 { return &in.Gauge },
+			"gauge p2", "spacing of the bolt columns across the load p2", hasGauge},
+	)
+	return out
+}
 
 func baseFields() []field {
 	ptr := func(f func(in *model.Inputs) *float64) func(*model.Inputs) *float64 { return f }
@@ -107,6 +164,12 @@ func layerFields() []field {
 				fmt.Sprintf("layer %d thickness", i+1), "layer thickness", inLayer},
 			field{p + "modulus", units.Stress, stiffness, func(in *model.Inputs) *float64 { return &in.Layers[i].Modulus },
 				fmt.Sprintf("layer %d modulus", i+1), "layer Young's modulus (default from material)", inLayer},
+			field{p + "expansion", units.Expansion, stiffness, func(in *model.Inputs) *float64 { return &in.Layers[i].Expansion },
+				fmt.Sprintf("layer %d expansion", i+1), "layer thermal expansion coefficient (default from material)",
+				func(in *model.Inputs) bool { return inLayer(in) && heated(in) }},
+			field{p + "pressure_limit", units.Stress, stiffness, func(in *model.Inputs) *float64 { return &in.Layers[i].PressureLimit },
+				fmt.Sprintf("layer %d pG", i+1), "limiting surface pressure pG under head, nut or washer (default from material)",
+				func(in *model.Inputs) bool { return inLayer(in) && in.Layers[i].PressureLimit > 0 }},
 		)
 	}
 	return out
@@ -249,7 +312,7 @@ func SameJoint(a, b *Scenario) error {
 		same := ua == ub && (ua && va.Dist == vb.Dist || !ua && fa == fb)
 		if !same {
 			return fmt.Errorf("%q and %q are not the same joint under the same duty: %s differs (%s vs %s); a comparison holds the loads fixed — run them separately with 'simulate'",
-				name(a), name(b), f.path, a.Describe(f.path, units.SI), b.Describe(f.path, units.SI))
+				name(a), name(b), f.path, a.Describe(f.path, a.Units), b.Describe(f.path, a.Units))
 		}
 	}
 	return nil

@@ -34,29 +34,69 @@ func (r rawDoc) clone() rawDoc {
 	return c
 }
 
+// nestedKeys are the keys of a section that hold a mapping of their own
+// (flattened to section.key.sub): their words, with the registry fields
+// that live in them added below.
+var nestedKeys = map[string][]string{
+	"bolt.thread":     {"diameter", "pitch", "threads_per_inch"},
+	"bolt.washer":     {"material"},
+	"bolt.nut_washer": {"material"},
+	"bolt.nut":        {"class"},
+	"members.tapped":  {},
+}
+
 // sectionKeys lists the keys each section accepts: its words and the
-// registry fields that live in it.
+// registry fields that live in it; a nested mapping's path (e.g.
+// "bolt.washer") lists its own keys.
 var sectionKeys = func() map[string][]string {
 	keys := map[string][]string{
-		"":           {"name", "description", "units", "bolt", "members", "tightening", "loads", "plate", "fatigue", "study", "correlations", "variants"},
-		"bolt":       {"thread", "class", "count", "length", "thread_length"},
-		"members":    {"method", "layers"},
+		"":           {"name", "description", "units", "bolt", "members", "tightening", "loads", "plate", "fatigue", "service", "study", "correlations", "variants"},
+		"bolt":       {"thread", "class", "count", "length", "thread_length", "washer", "nut_washer", "nut"},
+		"members":    {"method", "layers", "tapped", "roughness"},
 		"layer":      {"thickness", "material", "modulus"},
 		"tightening": {"method", "condition", "tool"},
 		"loads":      {"shear_planes", "threads_in_shear_plane"},
-		"plate":      {"material", "resistance", "bolts_across"},
+		"plate":      {"material", "resistance", "bolts_across", "bolts_in_line"},
 		"fatigue":    {"criterion", "endurance_source"},
+		"service":    {},
 		"study":      {"samples", "seed", "confidence", "precision", "target_probability", "target"},
+	}
+	for k, v := range nestedKeys {
+		keys[k] = append([]string(nil), v...)
 	}
 	for _, f := range fields {
 		sec, key, _ := strings.Cut(f.path, ".")
 		if sec == "members" && strings.HasPrefix(key, "layers.") {
+			if i := strings.LastIndexByte(key, '.'); strings.Count(key, ".") == 2 && f.path == "members.layers.1"+key[i:] {
+				keys["layer"] = append(keys["layer"], key[i+1:])
+			}
+			continue
+		}
+		if nest, sub, ok := strings.Cut(key, "."); ok {
+			keys[sec+"."+nest] = append(keys[sec+"."+nest], sub)
 			continue
 		}
 		keys[sec] = append(keys[sec], key)
 	}
 	return keys
 }()
+
+// knownPath reports whether a dotted path names a key a scenario may set
+// (used by variants).
+func knownPath(path string) bool {
+	if _, ok := lookupField(path); ok {
+		return true
+	}
+	i := strings.LastIndexByte(path, '.')
+	if i < 0 {
+		return false
+	}
+	sec, key := path[:i], path[i+1:]
+	if _, nested := nestedKeys[sec]; !nested && strings.Contains(sec, ".") {
+		return false
+	}
+	return slices.Contains(sectionKeys[sec], key)
+}
 
 type parser struct {
 	file string
@@ -104,6 +144,9 @@ func (p *parser) checkKey(section string, k *yaml.Node) error {
 	if section == "layer" {
 		where = "members.layers[]"
 	}
+	if len(allowed) == 0 {
+		return p.errf(k.Line, join(section, k.Value), "", "unknown key in %s; it takes no keys", where)
+	}
 	return p.errf(k.Line, join(section, k.Value), "", "unknown key in %s%s; allowed: %s", where, suggest(k.Value, allowed), strings.Join(allowed, ", "))
 }
 
@@ -142,6 +185,17 @@ func (p *parser) flatten(root *yaml.Node) (rawDoc, error) {
 			path := sec + "." + k2.Value
 			if path == "members.layers" {
 				return p.flattenLayers(&r, v2)
+			}
+			if _, nested := nestedKeys[path]; nested && v2.Kind == yaml.MappingNode {
+				r.vals[path], r.keyAt[path] = v2, k2.Line // the mapping itself, for "is it given"
+				return p.pairs(v2, path, func(k3, v3 *yaml.Node) error {
+					if err := p.checkKey(path, k3); err != nil {
+						return err
+					}
+					sub := path + "." + k3.Value
+					r.vals[sub], r.keyAt[sub] = v3, k3.Line
+					return nil
+				})
 			}
 			r.vals[path], r.keyAt[path] = v2, k2.Line
 			return nil
@@ -249,4 +303,17 @@ func abs(x float64) float64 {
 		return -x
 	}
 	return x
+}
+
+// optNumber reads a plain number, if present.
+func (p *parser) optNumber(r rawDoc, path string) (float64, bool, error) {
+	s, line, ok, err := p.scalar(r, path)
+	if err != nil || !ok {
+		return 0, ok, err
+	}
+	v, err := units.ParseNumber(s)
+	if err != nil {
+		return 0, true, p.errf(line, path, s, "%v", err)
+	}
+	return v, true, nil
 }

@@ -61,22 +61,34 @@ type Tool struct {
 	Controls    string // "torque" or "preload"
 	Tolerance   float64
 	Source      string
+	// Tensioner: the preload is applied by stretching the bolt; the nut is
+	// run down without load, so there is no thread torsion.
+	Tensioner bool
+	// AlphaALo, AlphaAHi: the tightening factor αA = FMmax/FMmin of the
+	// method in VDI 2230-1 Table A8; AlphaASource its tag.
+	AlphaALo, AlphaAHi float64
+	AlphaASource       string
 }
+
+// AlphaA returns the tightening factor (1 + t)/(1 − t) implied by the tool's
+// own scatter ±t at 3σ (for preload-controlled tools, the preload scatter;
+// for torque tools only the torque's part of it).
+func (t Tool) AlphaA() float64 { return (1 + t.Tolerance) / (1 - t.Tolerance) }
 
 // Tools are the built-in tightening methods.
 var Tools = []Tool{
 	{Name: "torque-wrench", Description: "hand click-type torque wrench", Controls: "torque", Tolerance: 0.06,
-		Source: "ISO 6789-1 permissible deviation ±6 % for type II click wrenches (from memory), taken at 3σ"},
+		Source: "ISO 6789-1 permissible deviation ±6 % for type II click wrenches (from memory), taken at 3σ", AlphaALo: 1.4, AlphaAHi: 1.6, AlphaASource: "VDI 2230-1 Table A8: torque wrench, torque set on the joint 1.4–1.6 (secondary source); 1.6–2.0 with estimated friction"},
 	{Name: "power-tool", Description: "calibrated nutrunner with torque control", Controls: "torque", Tolerance: 0.03,
-		Source: "common practice for calibrated nutrunners, ±3 % at 3σ"},
+		Source: "common practice for calibrated nutrunners, ±3 % at 3σ", AlphaALo: 1.4, AlphaAHi: 1.6, AlphaASource: "VDI 2230-1 Table A8: precision nut-runner 1.4–1.6 (secondary source)"},
 	{Name: "impact-wrench", Description: "impact or impulse wrench", Controls: "torque", Tolerance: 0.30,
-		Source: "VDI 2230-1 Table A8: preload scatter up to ±60 % for impact wrenches (secondary source); torque ±30 % at 3σ is common practice"},
+		Source: "VDI 2230-1 Table A8: preload scatter up to ±60 % for impact wrenches (secondary source); torque ±30 % at 3σ is common practice", AlphaALo: 2.5, AlphaAHi: 4, AlphaASource: "VDI 2230-1 Table A8: impact or impulse wrench 2.5–4 (from memory)"},
 	{Name: "angle-controlled", Description: "torque–angle or yield-controlled tightening", Controls: "preload", Tolerance: 0.13,
-		Source: "VDI 2230-1 Table A8: ±9 % to ±17 % (αA 1.2–1.4) for yield/angle control (from memory); ±13 % at 3σ"},
+		Source: "VDI 2230-1 Table A8: ±9 % to ±17 % (αA 1.2–1.4) for yield/angle control (from memory); ±13 % at 3σ", AlphaALo: 1.2, AlphaAHi: 1.4, AlphaASource: "VDI 2230-1 Table A8: yield- or angle-controlled 1.2–1.4 (from memory)"},
 	{Name: "tension-controlled", Description: "hydraulic tensioner set by pressure", Controls: "preload", Tolerance: 0.16,
-		Source: "VDI 2230-1 Table A8: ±9 % to ±23 % (αA 1.2–1.6) for hydraulic tensioning (secondary source); ±16 % at 3σ"},
+		Source: "VDI 2230-1 Table A8: ±9 % to ±23 % (αA 1.2–1.6) for hydraulic tensioning (secondary source); ±16 % at 3σ", Tensioner: true, AlphaALo: 1.2, AlphaAHi: 1.6, AlphaASource: "VDI 2230-1 Table A8: hydraulic tensioning 1.2–1.6 (secondary source)"},
 	{Name: "ultrasonic", Description: "elongation measured by ultrasound", Controls: "preload", Tolerance: 0.06,
-		Source: "VDI 2230-1 Table A8: ±2 % to ±10 % for ultrasonic elongation control (from memory); ±6 % at 3σ"},
+		Source: "VDI 2230-1 Table A8: ±2 % to ±10 % for ultrasonic elongation control (from memory); ±6 % at 3σ", AlphaALo: 1.05, AlphaAHi: 1.2, AlphaASource: "VDI 2230-1 Table A8: ultrasonic elongation control 1.05–1.2 (from memory)"},
 }
 
 func lookupCondition(name string) (Condition, error) {

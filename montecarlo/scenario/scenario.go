@@ -8,7 +8,9 @@ import (
 	"bytes"
 	"crypto/sha256"
 	"encoding/hex"
+	"errors"
 	"fmt"
+	"io"
 	"os"
 	"strings"
 	"unicode/utf8"
@@ -55,6 +57,13 @@ type Scenario struct {
 	ToolName      string // tightening-tool preset, "" if none
 	EnduranceNote string // where the endurance strength came from
 
+	// Roughness is the mean roughness Rz of the faces in the joint, mm
+	// (members.roughness; 0: not given). It chooses the row of the embedding
+	// estimate (VDI 2230-1 Table 5).
+	Roughness float64
+	// given holds the registry paths the file sets.
+	given map[string]bool
+
 	Variants []*Scenario // named variants (compare); each is a complete scenario
 	Variant  string      // this scenario's variant name, "" for the base
 }
@@ -91,8 +100,20 @@ func Parse(name string, data []byte) (*Scenario, error) {
 		return nil, p.errf(0, "", "", "the file is not text (binary data or invalid UTF-8); a scenario is a YAML document")
 	}
 	var doc yaml.Node
-	if err := yaml.Unmarshal(data, &doc); err != nil {
+	dec := yaml.NewDecoder(bytes.NewReader(data))
+	if err := dec.Decode(&doc); err != nil {
+		if errors.Is(err, io.EOF) {
+			return nil, p.errf(0, "", "", "the file holds no YAML document; a scenario needs at least bolt, members and tightening")
+		}
 		return nil, p.errf(0, "", "", "not valid YAML: %s", strings.TrimPrefix(err.Error(), "yaml: "))
+	}
+	var second yaml.Node
+	if err := dec.Decode(&second); !errors.Is(err, io.EOF) {
+		line := 0
+		if err == nil {
+			line = second.Line
+		}
+		return nil, p.errf(line, "", "", "the file holds a second YAML document (after a '---' line); a scenario is one document — remove it or split the file")
 	}
 	if len(doc.Content) == 0 || doc.Content[0].Kind != yaml.MappingNode {
 		line := 0

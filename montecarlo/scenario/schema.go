@@ -19,7 +19,7 @@ func oneOf(desc string, words ...string) keyKind {
 	return keyKind{"type": "string", "enum": words, "description": desc}
 }
 func quantityRef(d units.Dim, desc string) keyKind {
-	return keyKind{"$ref": "#/$defs/quantity_" + d.String(), "description": desc}
+	return keyKind{"$ref": "#/$defs/quantity_" + d.Key(), "description": desc}
 }
 
 func presetNames[T any](xs []T, name func(T) string) []string {
@@ -51,6 +51,14 @@ func wordKeys() map[string]keyKind {
 		"plate.material":               str("plate grade, e.g. S355, A36 (see 'boltrisk catalog materials')"),
 		"plate.resistance":             oneOf("shear-side resistance rule", "yield", "en1993", "aisc360"),
 		"plate.bolts_across":           integer("bolts in the critical cross-section", 1, 1000),
+		"plate.bolts_in_line":          integer("bolts in each row along the load (shear joints; bolt.count = bolts_in_line × bolts_across)", 1, 1000),
+		"bolt.thread.diameter":         quantityRef(units.Length, "nominal diameter of a user-defined thread"),
+		"bolt.thread.pitch":            quantityRef(units.Length, "pitch of a user-defined ISO metric thread"),
+		"bolt.thread.threads_per_inch": {"type": "number", "exclusiveMinimum": 0, "description": "threads per inch of a user-defined Unified thread"},
+		"bolt.washer.material":         str("head washer material (see 'boltrisk catalog materials')"),
+		"bolt.nut_washer.material":     str("nut washer material (see 'boltrisk catalog materials')"),
+		"bolt.nut.class":               str("ISO 898-2 nut property class, e.g. 8, 10"),
+		"members.roughness":            quantityRef(units.Length, "mean roughness Rz of the contact faces (VDI 2230-1 Table 5 embedding estimate)"),
 		"fatigue.criterion":            oneOf("fatigue failure line", "goodman", "gerber", "asme-elliptic", "amplitude"),
 		"fatigue.endurance_source":     oneOf("where the endurance strength comes from", "table", "vdi2230"),
 		"study.samples":                {"type": []string{"integer", "string"}, "description": "sample budget, e.g. 1000000 or 1e6"},
@@ -75,7 +83,7 @@ func Schema() map[string]any {
 				path = section + "." + k
 			}
 			if f, ok := lookupField(path); ok {
-				out[k] = map[string]any{"$ref": "#/$defs/value_" + f.dim.String(), "description": f.help}
+				out[k] = map[string]any{"$ref": "#/$defs/value_" + f.dim.Key(), "description": f.help}
 				continue
 			}
 			if w, ok := words[path]; ok {
@@ -88,15 +96,29 @@ func Schema() map[string]any {
 		return map[string]any{"type": "object", "properties": p, "additionalProperties": false}
 	}
 	top := props("")
-	for _, sec := range []string{"bolt", "members", "tightening", "loads", "plate", "fatigue", "study"} {
+	for _, sec := range []string{"bolt", "members", "tightening", "loads", "plate", "fatigue", "service", "study"} {
 		top[sec] = object(props(sec))
 	}
-	layer := object(props("layer"))
-	for _, k := range []string{"thickness", "modulus"} {
-		f, _ := lookupField("members.layers.1." + k)
-		layer["properties"].(map[string]any)[k] = map[string]any{"$ref": "#/$defs/value_" + f.dim.String(), "description": f.help}
+	// Nested mappings: bolt.washer, bolt.nut, members.tapped, … and the
+	// user-defined thread, which may also be a catalogue name.
+	for path := range nestedKeys {
+		sec, key, _ := strings.Cut(path, ".")
+		nested := object(props(path))
+		if w, ok := words[path]; ok {
+			nested = map[string]any{"oneOf": []any{map[string]any(w), nested}, "description": w["description"]}
+		}
+		top[sec].(map[string]any)["properties"].(map[string]any)[key] = nested
 	}
-	layer["properties"].(map[string]any)["material"] = str("member material (see 'boltrisk catalog materials')")
+	tight := top["tightening"].(map[string]any)["properties"].(map[string]any)
+	tight["embedding"] = map[string]any{"oneOf": []any{tight["embedding"], map[string]any{"const": "vdi2230"}},
+		"description": "embedding loss: a length (or distribution), or vdi2230 for the VDI 2230-1 Table 5 estimate"}
+	layer := object(props("layer"))
+	for _, k := range sectionKeys["layer"] {
+		if f, ok := lookupField("members.layers.1." + k); ok {
+			layer["properties"].(map[string]any)[k] = map[string]any{"$ref": "#/$defs/value_" + f.dim.Key(), "description": f.help}
+		}
+	}
+	layer["properties"].(map[string]any)["material"] = map[string]any(str("member material (see 'boltrisk catalog materials')"))
 	top["members"].(map[string]any)["properties"].(map[string]any)["layers"] = map[string]any{
 		"type": "array", "minItems": 1, "maxItems": model.MaxLayers, "items": layer, "description": "clamped layers from head to nut"}
 	top["correlations"] = map[string]any{"type": "array", "items": object(map[string]any{
@@ -121,8 +143,8 @@ func Schema() map[string]any {
 	dims = append(dims, units.Length) // bolt.length, bolt.thread_length
 	sort.Slice(dims, func(i, j int) bool { return dims[i] < dims[j] })
 	for _, d := range dims {
-		name := d.String()
-		q := map[string]any{"type": "string", "description": "a " + name + " with its unit"}
+		name := d.Key()
+		q := map[string]any{"type": "string", "description": "a " + d.String() + " with its unit"}
 		if us := units.Units(d); len(us) > 0 {
 			q["pattern"] = `^\s*[-+0-9.eE]+\s*(` + strings.Join(quoteAll(us), "|") + `)\s*$`
 		} else {

@@ -2,7 +2,6 @@ package scenario
 
 import (
 	"errors"
-	"slices"
 	"strconv"
 	"strings"
 
@@ -65,7 +64,7 @@ func (p *parser) buildVariants(base *Scenario, r rawDoc) error {
 				}
 				return p.errf(k.Line, "variants.set."+path, "", "expected a dotted path such as tightening.condition")
 			}
-			if _, known := sectionKeys[sec]; !known || !slices.Contains(sectionKeys[sec], key) {
+			if !knownPath(path) {
 				return p.errf(k.Line, "variants.set."+path, "", "no such input%s", suggest(path, allPaths()))
 			}
 			// A preset replaces the explicit values it governs, and vice versa.
@@ -100,6 +99,12 @@ func allPaths() []string {
 	var out []string
 	for sec, keys := range sectionKeys {
 		if sec == "" || sec == "layer" {
+			continue
+		}
+		if _, nested := nestedKeys[sec]; nested {
+			for _, k := range keys {
+				out = append(out, sec+"."+k)
+			}
 			continue
 		}
 		for _, k := range keys {
