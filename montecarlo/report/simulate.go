@@ -100,8 +100,8 @@ type SimDoc struct {
 	Diagnostics      []DiagnosticsDoc `json:"diagnostics,omitempty"`
 	Nominal          NominalBody      `json:"nominal"`
 	Checks
-	Warnings         []string         `json:"warnings"`
-	Caution          string           `json:"caution"`
+	Warnings []string `json:"warnings"`
+	Caution  string   `json:"caution"`
 }
 
 // Run describes the request of a run beyond its result.
