@@ -114,8 +114,8 @@ func newRootCmd(stdout, stderr io.Writer) *cobra.Command {
 		Use:   "boltrisk",
 		Short: "Failure probabilities of preloaded bolted joints",
 		Long: `boltrisk estimates how likely a preloaded bolted joint is to fail — by fatigue,
-separation, yield in assembly or service, proof load, shear, bearing, tear-out or
-slip — from the scatter in torque, friction, strengths and loads, and helps choose
+separation, yield in assembly or service, proof load, thread stripping, surface
+pressure, shear, bearing, net section, tear-out, block tearing or slip — from the scatter in torque, friction, strengths and loads, and helps choose
 the torque, tolerance and lubrication that make it safe.
 
 ` + report.Caution,

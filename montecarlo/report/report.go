@@ -13,7 +13,7 @@ import (
 	"io"
 	"math"
 	"strings"
-	"text/tabwriter"
+	"unicode/utf8"
 
 	"boltrisk/model/units"
 	"boltrisk/montecarlo"
@@ -95,25 +95,31 @@ type CorrelationDoc struct {
 
 // JointDoc describes the joint beyond its scalar inputs.
 type JointDoc struct {
-	Thread          string           `json:"thread"`
-	Series          string           `json:"series"`
-	Bolts           int              `json:"bolts"`
-	PropertyClass   string           `json:"property_class,omitempty"`
-	StressAreaMM2   float64          `json:"stress_area_mm2"`
-	GripMM          float64          `json:"grip_mm"`
-	Layers          int              `json:"layers"`
-	StiffnessMethod string           `json:"stiffness_method"`
-	Tightening      string           `json:"tightening_method"`
-	Condition       string           `json:"condition,omitempty"`
-	Tool            string           `json:"tool,omitempty"`
-	Criterion       string           `json:"fatigue_criterion"`
-	ShearRule       string           `json:"shear_resistance,omitempty"`
-	Correlations    []CorrelationDoc `json:"correlations,omitempty"`
+	Thread          string  `json:"thread"`
+	Series          string  `json:"series"`
+	Bolts           int     `json:"bolts"`
+	PropertyClass   string  `json:"property_class,omitempty"`
+	StressAreaMM2   float64 `json:"stress_area_mm2"`
+	GripMM          float64 `json:"grip_mm"`
+	Layers          int     `json:"layers"`
+	StiffnessMethod string  `json:"stiffness_method"`
+	Tightening      string  `json:"tightening_method"`
+	Condition       string  `json:"condition,omitempty"`
+	Tool            string  `json:"tool,omitempty"`
+	Criterion       string  `json:"fatigue_criterion"`
+	ShearRule       string  `json:"shear_resistance,omitempty"`
+	// TappedHole: cap screws into the last layer (not part of the grip).
+	TappedHole bool `json:"tapped_hole"`
+	// Washers under the head and the nut, each in the grip.
+	HeadWasher   bool             `json:"head_washer"`
+	NutWasher    bool             `json:"nut_washer"`
+	Correlations []CorrelationDoc `json:"correlations,omitempty"`
 }
 
 // internalUnit names the internal unit of a dimension (the unit of JSON values).
 func internalUnit(d units.Dim) string {
-	return map[units.Dim]string{units.Force: "N", units.Length: "mm", units.Stress: "MPa", units.Torque: "N*mm", units.Stiffness: "N/mm"}[d]
+	return map[units.Dim]string{units.Force: "N", units.Length: "mm", units.Stress: "MPa", units.Torque: "N*mm", units.Stiffness: "N/mm",
+		units.TempDiff: "K", units.Expansion: "1/K"}[d]
 }
 
 // distDoc documents a distribution.
@@ -164,6 +170,7 @@ func Joint(s *scenario.Scenario) JointDoc {
 	if in.ShearLoad > 0 {
 		j.ShearRule = in.ShearRule.String()
 	}
+	j.TappedHole, j.HeadWasher, j.NutWasher = in.Tapped, in.Washer.Present(), in.NutWasher.Present()
 	for _, c := range s.Problem.Corr {
 		j.Correlations = append(j.Correlations, CorrelationDoc{Between: [2]string{s.Problem.Vars[c.I].Name, s.Problem.Vars[c.J].Name}, Rho: c.Rho})
 	}
@@ -179,8 +186,19 @@ func jointLines(j JointDoc, sys units.System) []string {
 	if j.PropertyClass != "" {
 		bolt += ", class " + j.PropertyClass
 	}
+	clamped := fmt.Sprintf("%d layer(s)", j.Layers)
+	if j.TappedHole {
+		clamped = fmt.Sprintf("%d layer(s) into layer %d (tapped)", j.Layers-1, j.Layers)
+	}
+	if j.HeadWasher && j.NutWasher {
+		clamped += ", washers under head and nut"
+	} else if j.HeadWasher {
+		clamped += ", washer under the head"
+	} else if j.NutWasher {
+		clamped += ", washer under the nut"
+	}
 	lines := []string{bolt,
-		fmt.Sprintf("grip %s in %d layer(s), %s stiffness; tightening by %s", sys.Format(j.GripMM, units.Length), j.Layers, j.StiffnessMethod, j.Tightening)}
+		fmt.Sprintf("grip %s: %s, %s stiffness; tightening by %s", sys.Format(j.GripMM, units.Length), clamped, j.StiffnessMethod, j.Tightening)}
 	var presets []string
 	if j.Condition != "" {
 		presets = append(presets, "condition "+j.Condition)
@@ -230,15 +248,40 @@ func writeInputs(w io.Writer, j JointDoc, inputs []InputDoc, sys units.System) {
 		fmt.Fprintln(w, "  "+l)
 	}
 	fmt.Fprintln(w, "\nInputs")
-	tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', 0)
+	rows := make([][]string, 0, len(inputs))
 	for _, r := range inputs {
+		src := ""
 		if r.Source != "" {
-			fmt.Fprintf(tw, "  %s\t%s\t(%s)\n", r.Label, r.Display, r.Source)
-		} else {
-			fmt.Fprintf(tw, "  %s\t%s\n", r.Label, r.Display)
+			src = "(" + r.Source + ")"
+		}
+		rows = append(rows, []string{r.Label, r.Display, src})
+	}
+	writeColumns(w, rows)
+}
+
+// writeColumns writes rows of cells indented by two spaces, each column as
+// wide as its widest cell and two spaces apart, without trailing blanks
+// (text/tabwriter breaks a column at every line that has fewer cells).
+func writeColumns(w io.Writer, rows [][]string) {
+	var width []int
+	for _, r := range rows {
+		for i, c := range r {
+			if i == len(width) {
+				width = append(width, 0)
+			}
+			width[i] = max(width[i], utf8.RuneCountInString(c))
 		}
 	}
-	tw.Flush()
+	for _, r := range rows {
+		line := " "
+		for i, c := range r {
+			line += " " + c
+			if i < len(r)-1 {
+				line += strings.Repeat(" ", width[i]-utf8.RuneCountInString(c)+1)
+			}
+		}
+		fmt.Fprintln(w, strings.TrimRight(line, " "))
+	}
 }
 
 // WriteCaution writes the caution wrapped to 78 columns.
