@@ -12,8 +12,9 @@
 #      separation only, against the plain 8-bolt loop (goloop8): time ratio
 #      goloop8/boltrisk, i.e. the tool's share of the loop's speed per bolt
 #      evaluation.
-#   3. compare of the cover-flange base and its variant (2 variants) at 10^6
-#      pairs against the two separate runs: time ratio compare/(separate sum).
+#   3. compare of the cover-flange base and its two variants (oiled,
+#      mos2-paste: 3 joints) at 10^6 samples against the three separate runs:
+#      time ratio compare/(separate sum).
 #
 #   bash testdata/bench/speed.sh [rounds] [path/to/shared/bench]
 #
@@ -31,8 +32,10 @@ for l in goloop goloop8; do
 	(cd "$tmp/$l" && go build -o "$l" .)
 done
 b="$tmp/boltrisk"
-"$b" example cover-flange | sed 's/condition: dry /condition: oiled /' >"$tmp/oiled.yaml"
-grep -q 'condition: oiled' "$tmp/oiled.yaml" || { echo "speed.sh: could not make the oiled variant" >&2; exit 1; }
+for v in oiled mos2-paste; do
+	"$b" example cover-flange | sed "s/condition: dry /condition: $v /" >"$tmp/$v.yaml"
+	grep -q "condition: $v " "$tmp/$v.yaml" || { echo "speed.sh: could not make the $v variant" >&2; exit 1; }
+done
 
 rate() { sed -n 's/.*(\([0-9.]*\) M samples\/s).*/\1/p; s/.*rate=\([0-9.]*\) M samples\/s.*/\1/p'; }
 median() { tr ' ' '\n' | grep . | sort -g | awk '{a[NR]=$1} END {print a[int((NR+1)/2)]}'; }
@@ -43,16 +46,17 @@ nc=1000000
 ours3=() oursall=() loop=() numpy=() cfall=() cfsep=() l8=() cmp=() sep=()
 echo "round: bench-m12 [R1 modes, all modes, goloop, NumPy] M samples/s | cover-flange s [all, separation, goloop8] | compare s [compare, separate]"
 for r in $(seq "$rounds"); do
-	ours3+=("$("$b" simulate --example bench-m12 --samples $n --modes fatigue,separation,proof --json 2>&1 >/dev/null | rate)")
-	oursall+=("$("$b" simulate --example bench-m12 --samples $n --json 2>&1 >/dev/null | rate)")
+	ours3+=("$("$b" simulate --example bench-m12 --method crude --samples $n --modes fatigue,separation,proof --json 2>&1 >/dev/null | rate)")
+	oursall+=("$("$b" simulate --example bench-m12 --method crude --samples $n --json 2>&1 >/dev/null | rate)")
 	loop+=("$("$tmp/goloop/goloop" $n | rate)")
 	numpy+=("$(/usr/bin/python3 "$bench/r1_numpy.py" $n | rate)")
-	cfall+=("$(secs "$b" simulate --example cover-flange --samples $n8 --quiet --json)")
-	cfsep+=("$(secs "$b" simulate --example cover-flange --samples $n8 --modes separation --quiet --json)")
+	cfall+=("$(secs "$b" simulate --example cover-flange --method crude --samples $n8 --quiet --json)")
+	cfsep+=("$(secs "$b" simulate --example cover-flange --method crude --samples $n8 --modes separation --quiet --json)")
 	l8+=("$(secs "$tmp/goloop8/goloop8" $n8)")
 	cmp+=("$(secs "$b" compare --example cover-flange --samples $nc --quiet --json)")
-	sep+=("$(awk -v a="$(secs "$b" simulate --example cover-flange --samples $nc --quiet --json)" \
-		-v c="$(secs "$b" simulate "$tmp/oiled.yaml" --samples $nc --quiet --json)" 'BEGIN {printf "%.3f", a+c}')")
+	sep+=("$(awk -v a="$(secs "$b" simulate --example cover-flange --method crude --samples $nc --quiet --json)" \
+		-v c="$(secs "$b" simulate "$tmp/oiled.yaml" --method crude --samples $nc --quiet --json)" \
+		-v d="$(secs "$b" simulate "$tmp/mos2-paste.yaml" --method crude --samples $nc --quiet --json)" 'BEGIN {printf "%.3f", a+c+d}')")
 	echo "  round $r: ${ours3[-1]} ${oursall[-1]} ${loop[-1]} ${numpy[-1]} | ${cfall[-1]} ${cfsep[-1]} ${l8[-1]} | ${cmp[-1]} ${sep[-1]}"
 done
 m3=$(echo "${ours3[@]}" | median); mall=$(echo "${oursall[@]}" | median)
@@ -67,4 +71,4 @@ echo "  vectorised NumPy (r1_numpy.py):      $mn M samples/s"
 awk -v a="$m3" -v b="$mall" -v l="$ml" -v p="$mn" 'BEGIN { printf "  ratio to goloop: %.2f (three modes), %.2f (all five)   ratio to NumPy: %.2f (three), %.2f (all five)\n", a/l, b/l, a/p, b/p }'
 echo "  cover-flange $n8 samples: all modes $mcfa s, separation $mcfs s, goloop8 $ml8 s"
 awk -v a="$mcfa" -v s="$mcfs" -v l="$ml8" 'BEGIN { printf "  speed per bolt evaluation relative to goloop8: %.2f (all five modes), %.2f (separation only)\n", l/a, l/s }'
-awk -v c="$mcmp" -v s="$msep" 'BEGIN { printf "  compare of 2 variants: %.3f s vs 2 separate runs %.3f s: ratio %.2f\n", c, s, c/s }'
+awk -v c="$mcmp" -v s="$msep" 'BEGIN { printf "  compare of 3 joints (base and 2 variants): %.3f s vs 3 separate runs %.3f s: ratio %.2f\n", c, s, c/s }'
