@@ -23,6 +23,7 @@ func (p *parser) build(r rawDoc) (*Scenario, error) {
 	if err := p.buildVariants(s, r); err != nil {
 		return nil, err
 	}
+	s.raw, s.parser = r, p
 	return s, nil
 }
 

@@ -66,6 +66,12 @@ type Scenario struct {
 
 	Variants []*Scenario // named variants (compare); each is a complete scenario
 	Variant  string      // this scenario's variant name, "" for the base
+
+	// Data is the file's bytes, verbatim (for the report's appendix).
+	Data []byte
+	// raw and parser rebuild the scenario with changed keys (Alternative).
+	raw    rawDoc
+	parser *parser
 }
 
 // Inputs returns the nominal model inputs.
@@ -132,6 +138,7 @@ func Parse(name string, data []byte) (*Scenario, error) {
 	}
 	sum := sha256.Sum256(data)
 	s.SHA256 = hex.EncodeToString(sum[:])
+	s.Data = data
 	for _, v := range s.Variants {
 		v.SHA256 = s.SHA256
 	}

@@ -1,0 +1,76 @@
+package main
+
+import (
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+)
+
+// TestSpecCommand: the spec document matches its schema, carries the
+// callout line and the caution, and the text names the callout.
+func TestSpecCommand(t *testing.T) {
+	code, out, errs := runCLI("spec", "--example", "cover-flange", "--target", "1e-2", "--samples", "20000", "--json", "--quiet")
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errs)
+	}
+	validate(t, compile(t, "spec"), "spec JSON", []byte(out))
+	for _, want := range []string{`"kind": "spec"`, `"line": "Torque `, `"callout"`, "CAUTION"} {
+		if !strings.Contains(out, want) {
+			t.Errorf("spec JSON lacks %s", want)
+		}
+	}
+	code, text, _ := runCLI("spec", "--example", "cover-flange", "--target", "1e-2", "--samples", "20000", "--quiet")
+	if code != 0 || !strings.Contains(text, "Callout for the drawing") || !strings.Contains(text, "Torque ") {
+		t.Errorf("spec text: exit %d\n%s", code, text)
+	}
+	// Impossible target: the modes that make it so and the suggestions.
+	code, out, errs = runCLI("spec", "--example", "cover-flange", "--target", "1e-4", "--samples", "20000", "--steps", "5", "--json", "--quiet")
+	if code != 0 {
+		t.Fatalf("impossible: exit %d: %s", code, errs)
+	}
+	validate(t, compile(t, "spec"), "spec JSON (impossible)", []byte(out))
+	for _, want := range []string{`"impossible"`, `"modes_above_target"`, `"change": "condition `} {
+		if !strings.Contains(out, want) {
+			t.Errorf("impossible spec JSON lacks %s", want)
+		}
+	}
+}
+
+// TestDecideBadInput: clear errors naming the flag and what is allowed.
+func TestDecideBadInput(t *testing.T) {
+	dir := t.TempDir()
+	ex, _ := os.ReadFile(filepath.Join("..", "..", "testdata", "examples", "cover-flange.yaml"))
+	a := filepath.Join(dir, "a.yaml")
+	os.WriteFile(a, ex, 0o644)
+	noTool := filepath.Join(dir, "notool.yaml")
+	os.WriteFile(noTool, []byte(strings.Replace(string(ex), "  tool: torque-wrench", "", 1)), 0o644)
+	for _, test := range []struct {
+		args []string
+		code int
+		want string
+	}{
+		{[]string{"spec", a}, exitUsage, "--target 0: a failure probability strictly between 0 and 1"},
+		{[]string{"spec", a, "--target", "1.5"}, exitUsage, "--target 1.5"},
+		{[]string{"spec", a, "--target", "-1e-3"}, exitUsage, "strictly between 0 and 1"},
+		{[]string{"spec", a, "--target", "1e-3", "--tools", "torque-wrench,powertool"}, exitUsage, `did you mean "power-tool"`},
+		{[]string{"spec", a, "--target", "1e-3", "--tools", "ultrasonic"}, exitUsage, "controls preload"},
+		{[]string{"spec", a, "--target", "1e-3", "--range", "70..40N*m"}, exitUsage, "--range"},
+		{[]string{"spec", a, "--target", "1e-3", "--range", "0..40N*m"}, exitUsage, "lower end must be > 0"},
+		{[]string{"spec", a, "--target", "1e-3", "--range", "40..70"}, exitUsage, "needs a unit of torque"},
+		{[]string{"spec", a, "--target", "1e-3", "--range", "50..53N*m", "--samples", "20000", "--quiet"}, exitUsage, "cannot hold the window"},
+		{[]string{"spec", a, "--target", "1e-3", "--steps", "2"}, exitUsage, "--steps 2"},
+		{[]string{"spec", noTool, "--target", "1e-3"}, exitError, "tightening.torque has no scatter"},
+	} {
+		code, out, errs := runCLI(test.args...)
+		if code != test.code || !strings.Contains(errs, test.want) {
+			t.Errorf("%v: exit %d, stderr %q; want exit %d mentioning %q", test.args, code, errs, test.code, test.want)
+		}
+		if out != "" {
+			t.Errorf("%v: wrote to stdout on error", test.args)
+		}
+	}
+	if after, _ := os.ReadFile(a); string(after) != string(ex) {
+		t.Error("an input file changed")
+	}
+}
