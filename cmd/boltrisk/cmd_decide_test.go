@@ -74,3 +74,38 @@ func TestDecideBadInput(t *testing.T) {
 		t.Error("an input file changed")
 	}
 }
+
+// TestDriversCommand: the drivers document matches its schema; simulate
+// --drivers carries the same body; the review gets the picture.
+func TestDriversCommand(t *testing.T) {
+	code, out, errs := runCLI("drivers", "--example", "cover-flange", "--samples", "50000", "--json", "--quiet")
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errs)
+	}
+	validate(t, compile(t, "drivers"), "drivers JSON", []byte(out))
+	for _, want := range []string{`"kind": "drivers"`, `"alpha2"`, `"failure_shift_sd"`, `"spearman"`, `"fixed_at_median"`} {
+		if !strings.Contains(out, want) {
+			t.Errorf("drivers JSON lacks %s", want)
+		}
+	}
+	code, out, errs = runCLI("simulate", "--example", "cover-flange", "--samples", "50000", "--method", "crude", "--drivers", "--json", "--quiet")
+	if code != 0 {
+		t.Fatalf("simulate --drivers: exit %d: %s", code, errs)
+	}
+	validate(t, compile(t, "simulate"), "simulate --drivers JSON", []byte(out))
+	if !strings.Contains(out, `"drivers"`) {
+		t.Error("simulate --drivers JSON lacks drivers")
+	}
+	dir := filepath.Join(t.TempDir(), "rev")
+	code, _, errs = runCLI("drivers", "--example", "cover-flange", "--samples", "50000", "--out", dir, "--quiet")
+	if code != 0 {
+		t.Fatalf("drivers --out: exit %d: %s", code, errs)
+	}
+	if _, err := os.Stat(filepath.Join(dir, "drivers.png")); err != nil {
+		t.Error("no drivers.png in the review")
+	}
+	code, _, errs = runCLI("drivers", "--example", "cover-flange", "--subsample", "3")
+	if code != exitUsage || !strings.Contains(errs, "--subsample 3") {
+		t.Errorf("bad --subsample: exit %d, %s", code, errs)
+	}
+}

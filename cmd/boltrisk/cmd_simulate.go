@@ -9,6 +9,7 @@ import (
 	"github.com/spf13/cobra"
 
 	"boltrisk/montecarlo"
+	"boltrisk/montecarlo/decide"
 	"boltrisk/montecarlo/report"
 	"boltrisk/montecarlo/scenario"
 	"boltrisk/montecarlo/study"
@@ -21,6 +22,7 @@ type SimulateOptions struct {
 	Output    outFlags
 	LoadCurve string
 	LoadSteps int
+	Drivers   bool
 }
 
 func newSimulateCmd(stdout, stderr io.Writer, runF func(context.Context, *SimulateOptions) error) *cobra.Command {
@@ -67,6 +69,7 @@ marked partial.
 	opts.Output.add(cmd)
 	cmd.Flags().StringVar(&opts.LoadCurve, "load-curve", "", "with --out: also draw the probability of each mode against a multiplier LO..HI on the service loads, e.g. 0.5..2")
 	cmd.Flags().IntVar(&opts.LoadSteps, "load-steps", 9, "values of the load multiplier for --load-curve")
+	cmd.Flags().BoolVar(&opts.Drivers, "drivers", false, "also find what drives each mode (see 'boltrisk drivers'; a crude run of the same samples)")
 	return cmd
 }
 
@@ -97,12 +100,26 @@ func runSimulate(ctx context.Context, opts *SimulateOptions) error {
 	}
 	opts.Run.timing(opts.ErrOut, res.Evaluations, res.Elapsed)
 	doc := report.Simulation(s, res, report.Run{Samples: set.Samples, Interval: set.Interval}, toolVersion())
+	if opts.Drivers && !res.Partial {
+		d, err := driversOf(ctx, s, set, decide.DefaultSubsample)
+		if err != nil {
+			return err
+		}
+		b := report.DriversBodyOf(d)
+		doc.Drivers = &b
+	}
 	if opts.Output.Dir != "" {
 		if err := writeSimulationReview(ctx, opts, s, res, &doc, set, curve); err != nil {
 			return err
 		}
 	}
-	return opts.finish(doc, func(w io.Writer) { report.WriteSimulation(w, s, doc, sys) },
+	return opts.finish(doc, func(w io.Writer) {
+		report.WriteSimulation(w, s, doc, sys)
+		if doc.Drivers != nil {
+			io.WriteString(w, "\n")
+			report.WriteDriversBody(w, *doc.Drivers)
+		}
+	},
 		func(w io.Writer) error { return report.WriteSimulationCSV(w, doc) }, res.Partial, inputFiles(s))
 }
 
@@ -144,5 +161,10 @@ func writeSimulationReview(ctx context.Context, opts *SimulateOptions, s *scenar
 	}
 	ss := []*scenario.Scenario{s}
 	rev := report.SimulationReview(s, *doc, figs, opts.Output.provenance(ss, res.Seed, set.Samples, res.Samples, res.Workers), sys)
+	if doc.Drivers != nil {
+		if err := addDrivers(rev, *doc.Drivers); err != nil {
+			return err
+		}
+	}
 	return opts.Output.write(rev, ss, opts.ErrOut, opts.Run.Quiet)
 }

@@ -132,6 +132,7 @@ the torque, tolerance and lubrication that make it safe.
 		newSweepCmd(stdout, stderr, nil),
 		newCompareCmd(stdout, stderr, nil),
 		newSpecCmd(stdout, stderr, nil),
+		newDriversCmd(stdout, stderr, nil),
 		newCatalogCmd(stdout),
 		newExampleCmd(stdout),
 		newSchemaCmd(stdout),

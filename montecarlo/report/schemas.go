@@ -15,6 +15,7 @@ var Documents = map[string]any{
 	"sweep":    SweepDoc{},
 	"compare":  CompareDoc{},
 	"spec":     SpecDoc{},
+	"drivers":  DriversDoc{},
 }
 
 // GenerateSchemas returns the JSON Schema of every document (reflected from

@@ -102,6 +102,8 @@ type SimDoc struct {
 	Checks
 	Warnings []string `json:"warnings"`
 	Caution  string   `json:"caution"`
+
+	Drivers *DriversBody `json:"drivers,omitempty"` // with --drivers: what drives each mode
 }
 
 // Run describes the request of a run beyond its result.
