@@ -19,6 +19,7 @@ type CompareOptions struct {
 	common
 	Run    runFlags
 	Output outFlags
+	Retune retuneFlags
 }
 
 func newCompareCmd(stdout, stderr io.Writer, runF func(context.Context, *CompareOptions) error) *cobra.Command {
@@ -54,6 +55,7 @@ same service loads; anything else (condition, tool, torque, class…) may differ
 	opts.addFlags(cmd, true)
 	opts.Run.add(cmd, false, "")
 	opts.Output.add(cmd)
+	opts.Retune.add(cmd)
 	return cmd
 }
 
@@ -122,6 +124,13 @@ func runCompare(ctx context.Context, opts *CompareOptions) error {
 	for i, s := range ss {
 		ps[i] = &s.Problem
 	}
+	rps, rdoc, err := retune(ctx, opts.Cmd(), &opts.Retune, ss, names, set, sys)
+	if err != nil {
+		return err
+	}
+	if rps != nil {
+		ps = rps
+	}
 	var done func()
 	set.Progress, done = opts.Run.progress(opts.ErrOut, set.Samples, "comparing")
 	pr, runErr := montecarlo.RunPaired(ctx, ps, set)
@@ -130,16 +139,20 @@ func runCompare(ctx context.Context, opts *CompareOptions) error {
 		return runErr
 	}
 	doc := report.Compare(ss, names, pr, report.Run{Samples: set.Samples, Interval: set.Interval}, toolVersion())
+	doc.Retune = rdoc
 	if opts.Output.Dir != "" && !pr.Partial {
 		figs, err := report.CompareFigures(names, pr, sys)
 		if err != nil {
 			return err
 		}
 		rev := report.CompareReview(ss, doc, figs, opts.Output.provenance(ss, set.Seed, set.Samples, pr.Samples, pr.Variants[0].Workers), sys)
+		if rdoc != nil {
+			rev.Sections = append([]report.Section{report.RetuneSection(rdoc, sys)}, rev.Sections...)
+		}
 		if err := opts.Output.write(rev, ss, opts.ErrOut, opts.Run.Quiet); err != nil {
 			return err
 		}
 	}
-	return opts.finish(doc, func(w io.Writer) { report.WriteCompare(w, doc, sys) },
+	return opts.finish(doc, withRetune(rdoc, sys, func(w io.Writer) { report.WriteCompare(w, doc, sys) }),
 		func(w io.Writer) error { return report.WriteCompareCSV(w, doc) }, pr.Partial, inputFiles(ss...))
 }

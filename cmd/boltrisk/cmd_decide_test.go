@@ -1,6 +1,7 @@
 package main
 
 import (
+	"encoding/json"
 	"os"
 	"path/filepath"
 	"strings"
@@ -107,5 +108,58 @@ func TestDriversCommand(t *testing.T) {
 	code, _, errs = runCLI("drivers", "--example", "cover-flange", "--subsample", "3")
 	if code != exitUsage || !strings.Contains(errs, "--subsample 3") {
 		t.Errorf("bad --subsample: exit %d, %s", code, errs)
+	}
+}
+
+// TestCompareRetune: each variant is compared at its own callout, and that
+// callout equals what 'boltrisk spec' gives for the variant alone.
+func TestCompareRetune(t *testing.T) {
+	code, out, errs := runCLI("compare", "--example", "cover-flange", "--retune", "--target", "1e-2", "--samples", "20000", "--json", "--quiet")
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errs)
+	}
+	validate(t, compile(t, "compare"), "compare --retune JSON", []byte(out))
+	var doc struct {
+		Retune struct {
+			Variants []struct {
+				Name    string
+				Nominal float64
+			}
+		}
+	}
+	if err := json.Unmarshal([]byte(out), &doc); err != nil {
+		t.Fatal(err)
+	}
+	if len(doc.Retune.Variants) != 3 {
+		t.Fatalf("retune variants: %+v", doc.Retune.Variants)
+	}
+	dir := t.TempDir()
+	ex, _ := os.ReadFile(filepath.Join("..", "..", "testdata", "examples", "cover-flange.yaml"))
+	for _, v := range doc.Retune.Variants {
+		src := string(ex)
+		if v.Name != "base" {
+			src = strings.Replace(src, "condition: dry", "condition: "+v.Name, 1)
+		}
+		f := filepath.Join(dir, v.Name+".yaml")
+		os.WriteFile(f, []byte(src), 0o644)
+		code, out, errs := runCLI("spec", f, "--target", "1e-2", "--samples", "20000", "--json", "--quiet")
+		if code != 0 {
+			t.Fatalf("spec %s: exit %d: %s", v.Name, code, errs)
+		}
+		var sp struct{ Callout struct{ Nominal float64 } }
+		if err := json.Unmarshal([]byte(out), &sp); err != nil {
+			t.Fatal(err)
+		}
+		if sp.Callout.Nominal != v.Nominal || v.Nominal == 0 {
+			t.Errorf("%s: compared at %g N·mm, its own spec says %g", v.Name, v.Nominal, sp.Callout.Nominal)
+		}
+	}
+	code, _, errs = runCLI("compare", "--example", "cover-flange", "--retune", "--target", "2")
+	if code != exitUsage || !strings.Contains(errs, "--target 2") {
+		t.Errorf("bad --target: exit %d, %s", code, errs)
+	}
+	code, _, errs = runCLI("compare", "--example", "cover-flange", "--target", "1e-3")
+	if code != exitUsage || !strings.Contains(errs, "--target is for --retune") {
+		t.Errorf("--target without --retune: exit %d, %s", code, errs)
 	}
 }

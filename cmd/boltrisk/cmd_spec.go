@@ -17,6 +17,10 @@ import (
 	"boltrisk/montecarlo/scenario"
 )
 
+// DefaultExpand is how often spec (and compare --retune) widen the default
+// range, 0.5 … 1.5 × the file's setting, when the window reaches its end.
+const DefaultExpand = 3
+
 // SpecOptions are the options of `boltrisk spec`.
 type SpecOptions struct {
 	common
@@ -68,7 +72,7 @@ rare-event estimators.
 	fl := cmd.Flags()
 	opts.addFlags(cmd, false)
 	fl.Float64Var(&opts.Target, "target", 0, "target failure probability in (0, 1) (default: the scenario's study.target_probability)")
-	fl.StringVar(&opts.Range, "range", "", "range of the nominal setting searched, LO..HI[UNIT] (default: 0.5 … 1.5 × the file's)")
+	fl.StringVar(&opts.Range, "range", "", "range of the nominal setting searched, LO..HI[UNIT] (default: 0.5 … 1.5 × the file's, widened up to 3 times when the window reaches an end)")
 	fl.IntVar(&opts.Steps, "steps", 9, "grid values before bisection, 3 … 101")
 	fl.StringVar(&opts.Tools, "tools", "", "comma-separated candidate tools for the callout (default: every preset controlling the same quantity; see 'boltrisk catalog tools')")
 	opts.Run.add(cmd, false, "crude")
@@ -106,7 +110,7 @@ func runSpec(ctx context.Context, opts *SpecOptions) error {
 		return usagef("--tools %q: %v", opts.Tools, err)
 	}
 	nom := *scenario.FieldPtr(in, path)
-	o := decide.SpecOptions{Target: target, Path: path, Field: scenario.FieldPtrFunc(path), Lo: 0.5 * nom, Hi: 1.5 * nom, Steps: opts.Steps, Settings: set}
+	o := decide.SpecOptions{Target: target, Path: path, Field: scenario.FieldPtrFunc(path), Lo: 0.5 * nom, Hi: 1.5 * nom, Steps: opts.Steps, Settings: set, Expand: DefaultExpand}
 	if opts.Range != "" {
 		v, err := parseVary(path+"="+opts.Range, s, 2)
 		if err != nil {
@@ -115,7 +119,7 @@ func runSpec(ctx context.Context, opts *SpecOptions) error {
 		if !(v.Lo > 0) {
 			return usagef("--range %q: the lower end must be > 0", opts.Range)
 		}
-		o.Lo, o.Hi = v.Lo, v.Hi
+		o.Lo, o.Hi, o.Expand = v.Lo, v.Hi, 0
 	}
 	if opts.Steps < 3 || opts.Steps > 101 {
 		return usagef("--steps %d: from 3 to 101", opts.Steps)
@@ -149,7 +153,7 @@ func runSpec(ctx context.Context, opts *SpecOptions) error {
 		return usagef("--range %s … %s cannot hold the window: the settings meeting the target reach its %s end (%s); widen --range beyond it",
 			sys.Format(o.Lo, dim), sys.Format(o.Hi, dim), end, sys.Format(at, dim))
 	}
-	doc := report.Spec(s, sp, o.Lo, o.Hi, toolVersion())
+	doc := report.Spec(s, sp, toolVersion())
 	if sys != units.SI && doc.Callout != nil {
 		doc.Callout.Line = report.CalloutLine(doc, s.ConditionName, sys)
 	}

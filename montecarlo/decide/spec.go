@@ -47,6 +47,19 @@ type SpecOptions struct {
 	// is swept on a grid of AltSteps values (no bisection).
 	Alternatives []Alternative
 	AltSamples   int64
+	// Expand is the most times the range is widened when the upper-bound
+	// window reaches one of its ends (the lower end halved, the upper end
+	// times 1.5); 0: never (the caller reports the range as too narrow).
+	Expand int
+	// Format writes a setting in messages (nil: %g in internal units).
+	Format func(float64) string
+}
+
+func (o *SpecOptions) fmtX(v float64) string {
+	if o.Format != nil {
+		return o.Format(v)
+	}
+	return fmt.Sprintf("%g", v)
 }
 
 // Tolerance bounds of the search, relative at ±3σ.
@@ -105,6 +118,8 @@ type Spec struct {
 	Path       string
 	Settings   montecarlo.Settings
 	MethodNote string
+	// Lo, Hi: the range searched last (after any widening).
+	Lo, Hi float64
 	// Sweep holds the grid and the windows of the nominal setting at the
 	// file's scatter (point estimates and upper bounds, edges bisected).
 	Sweep *study.Sweep
@@ -199,12 +214,27 @@ func RunSpec(ctx context.Context, p *montecarlo.Problem, o SpecOptions) (*Spec, 
 	}
 	out.Settings = s
 	vary := study.Vary{Kind: study.Input, Path: o.Path, Field: o.Field, Lo: o.Lo, Hi: o.Hi, Steps: o.Steps}
-	sw, err := study.Run(ctx, p, vary, s, o.Target)
-	if err != nil {
-		return nil, err
+	var sw *study.Sweep
+	for try := 0; ; try++ {
+		var err error
+		if sw, err = study.Run(ctx, p, vary, s, o.Target); err != nil {
+			return nil, err
+		}
+		out.Runs += len(sw.Steps) + sw.Window.Bisections + sw.Conservative.Bisections
+		w := sw.Conservative
+		if !w.Found || try >= o.Expand || !(w.OpenLo || w.OpenHi) {
+			break
+		}
+		if w.OpenLo {
+			vary.Lo /= 2
+		}
+		if w.OpenHi {
+			vary.Hi *= 1.5
+		}
 	}
+	out.Lo, out.Hi = vary.Lo, vary.Hi
+	o.Lo, o.Hi = vary.Lo, vary.Hi
 	out.Sweep = sw
-	out.Runs = len(sw.Steps) + sw.Window.Bisections + sw.Conservative.Bisections
 	w := sw.Conservative
 	out.Feasible = w.Found
 	if !w.Found {
@@ -417,12 +447,16 @@ func impossible(ctx context.Context, p *montecarlo.Problem, o SpecOptions, s mon
 // assembly preload (1 for a preload callout), so that an alternative is
 // searched over the same preloads.
 func settingPerPreload(p *montecarlo.Problem, o SpecOptions) float64 {
+	return SettingPerPreload(p, o.Field)
+}
+
+// SettingPerPreload is the nominal setting of the controlled input (field)
+// per newton of nominal assembly preload: a range of settings scaled by the
+// ratio of two joints' values covers the same preloads in both.
+func SettingPerPreload(p *montecarlo.Problem, field func(*model.Inputs) *float64) float64 {
 	in := p.Base
-	for i := range p.Vars {
-		*p.Vars[i].Field(&in) = p.Vars[i].Dist.Mean()
-	}
 	nom := model.EvaluateNominal(&in)
-	x := *o.Field(&in)
+	x := *field(&in)
 	if fm := nom.Outcome.Bolt.AssemblyPreload; fm > 0 && x > 0 {
 		return x / fm
 	}

@@ -68,6 +68,8 @@ type CompareDoc struct {
 	Differences      []DiffDoc    `json:"differences"`
 	Warnings         []string     `json:"warnings"`
 	Caution          string       `json:"caution"`
+
+	Retune *RetuneDoc `json:"retune,omitempty"` // with --retune: each variant at its own callout
 }
 
 // Compare builds the comparison document; names label the variants.

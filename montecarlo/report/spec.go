@@ -112,11 +112,11 @@ type SpecFacts struct {
 }
 
 // Spec builds the spec document.
-func Spec(s *scenario.Scenario, sp *decide.Spec, lo, hi float64, version string) SpecDoc {
+func Spec(s *scenario.Scenario, sp *decide.Spec, version string) SpecDoc {
 	set := sp.Settings
 	dim := scenario.FieldDim(sp.Path)
 	doc := SpecDoc{Envelope: envelope("spec", version), Scenario: Info(s), Joint: Joint(s), Inputs: Inputs(s, units.SI),
-		Target: sp.Target, Input: sp.Path, Unit: internalUnit(dim), RangeLo: lo, RangeHi: hi, Method: set.Method.String(), MethodNote: sp.MethodNote,
+		Target: sp.Target, Input: sp.Path, Unit: internalUnit(dim), RangeLo: sp.Lo, RangeHi: sp.Hi, Method: set.Method.String(), MethodNote: sp.MethodNote,
 		Samples: set.Samples, Seed: set.Seed, Workers: set.Workers, Confidence: set.Confidence, Runs: sp.Runs, Steps: len(sp.Sweep.Steps),
 		FileTolerance: sp.FileTolerance, Feasible: sp.Feasible, RangeTooNarrow: sp.RangeLo || sp.RangeHi,
 		Warnings: warnings(s), Caution: Caution}
