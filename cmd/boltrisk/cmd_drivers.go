@@ -99,6 +99,7 @@ func runDrivers(ctx context.Context, opts *DriversOptions) error {
 		}
 		ss := []*scenario.Scenario{s}
 		rev := report.DriversReview(s, doc, []report.Figure{f}, opts.Output.provenance(ss, set.Seed, set.Samples, d.Samples, set.Workers), sys)
+		rev.Appendices = append(rev.Appendices, report.ScenarioAppendix(s))
 		if err := opts.Output.write(rev, ss, opts.ErrOut, opts.Run.Quiet); err != nil {
 			return err
 		}

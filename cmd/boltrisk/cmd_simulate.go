@@ -23,6 +23,7 @@ type SimulateOptions struct {
 	LoadCurve string
 	LoadSteps int
 	Drivers   bool
+	SignOff   float64
 }
 
 func newSimulateCmd(stdout, stderr io.Writer, runF func(context.Context, *SimulateOptions) error) *cobra.Command {
@@ -69,6 +70,7 @@ marked partial.
 	opts.Output.add(cmd)
 	cmd.Flags().StringVar(&opts.LoadCurve, "load-curve", "", "with --out: also draw the probability of each mode against a multiplier LO..HI on the service loads, e.g. 0.5..2")
 	cmd.Flags().IntVar(&opts.LoadSteps, "load-steps", 9, "values of the load multiplier for --load-curve")
+	cmd.Flags().Float64Var(&opts.SignOff, "sign-off", 0, "with --out: target failure probability of the sign-off page's verdicts, in (0, 1) (default: the scenario's study.target_probability)")
 	cmd.Flags().BoolVar(&opts.Drivers, "drivers", false, "also find what drives each mode (see 'boltrisk drivers'; a crude run of the same samples)")
 	return cmd
 }
@@ -80,6 +82,9 @@ func runSimulate(ctx context.Context, opts *SimulateOptions) error {
 	}
 	set, err := opts.Run.settings(s)
 	if err != nil {
+		return err
+	}
+	if err := checkSignOff(opts); err != nil {
 		return err
 	}
 	if opts.LoadCurve != "" && opts.Output.Dir == "" {
@@ -166,5 +171,6 @@ func writeSimulationReview(ctx context.Context, opts *SimulateOptions, s *scenar
 			return err
 		}
 	}
+	addSignOff(rev, opts, s, res, *doc)
 	return opts.Output.write(rev, ss, opts.ErrOut, opts.Run.Quiet)
 }

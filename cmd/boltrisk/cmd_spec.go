@@ -160,6 +160,7 @@ func runSpec(ctx context.Context, opts *SpecOptions) error {
 	if opts.Output.Dir != "" {
 		ss := []*scenario.Scenario{s}
 		rev := report.SpecReview(s, doc, opts.Output.provenance(ss, set.Seed, set.Samples, set.Samples, sp.Settings.Workers), sys)
+		rev.Appendices = append(rev.Appendices, report.ScenarioAppendix(s))
 		if err := opts.Output.write(rev, ss, opts.ErrOut, opts.Run.Quiet); err != nil {
 			return err
 		}

@@ -17,6 +17,8 @@ type Review struct {
 	Figures    []Figure
 	Provenance [][2]string
 	Caution    string
+	SignOff    *SignOff   // the first page, when set (signoff.go)
+	Appendices []Appendix // after the provenance (signoff.go)
 }
 
 // Section is a heading with paragraphs and an optional table.
@@ -43,6 +45,9 @@ type Figure struct {
 // their file names.
 func (r *Review) WriteMarkdown(w io.Writer) error {
 	var b strings.Builder
+	if r.SignOff != nil {
+		r.SignOff.writeMarkdown(&b)
+	}
 	fmt.Fprintf(&b, "# %s\n\n", r.Title)
 	if r.Subtitle != "" {
 		fmt.Fprintf(&b, "%s\n\n", r.Subtitle)
@@ -65,6 +70,7 @@ func (r *Review) WriteMarkdown(w io.Writer) error {
 	}
 	b.WriteString("## Provenance\n\n")
 	writeMDTable(&b, &Table{Header: []string{"item", "value"}, Rows: pairs(r.Provenance)})
+	writeAppendicesMarkdown(&b, r.Appendices)
 	fmt.Fprintf(&b, "> **%s**\n", r.Caution)
 	_, err := io.WriteString(w, b.String())
 	return err
@@ -123,11 +129,12 @@ td.num { text-align: right; font-variant-numeric: tabular-nums; }
 figure { margin: 1.2em 0; page-break-inside: avoid; }
 figure img { max-width: 100%; border: 1px solid #ddd; }
 figcaption { font-style: italic; font-size: .92em; }
+pre.verbatim { font-size: .8em; white-space: pre-wrap; border: 1px solid #ddd; padding: .5em; }
 @media print { body { max-width: none; margin: 0; } h2 { page-break-after: avoid; } table, figure { page-break-inside: avoid; } }
 </style>
 </head>
 <body>
-<h1>{{.Title}}</h1>
+{{with .SignOff}}{{template "signoff" .}}{{end}}<h1>{{.Title}}</h1>
 {{if .Subtitle}}<p>{{.Subtitle}}</p>{{end}}
 <p class="caution">{{.Caution}}</p>
 {{range .Sections}}<h2>{{.Heading}}</h2>
@@ -140,7 +147,7 @@ figcaption { font-style: italic; font-size: .92em; }
 {{end}}{{end}}<h2>Provenance</h2>
 <table><tbody>{{range .Provenance}}<tr><th>{{index . 0}}</th><td>{{index . 1}}</td></tr>
 {{end}}</tbody></table>
-<p class="caution">{{.Caution}}</p>
+{{template "appendices" .Appendices}}<p class="caution">{{.Caution}}</p>
 <script>
 (function () {
   function check() {
