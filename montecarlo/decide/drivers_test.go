@@ -12,6 +12,7 @@ import (
 	"boltrisk/montecarlo"
 	"boltrisk/montecarlo/decide"
 	"boltrisk/montecarlo/problemtest"
+	"boltrisk/montecarlo/scenario"
 )
 
 // TestDriversLinearLimitState checks every driver against the closed forms
@@ -125,5 +126,39 @@ func TestSpearmanB3(t *testing.T) {
 		if got := decide.Spearman(u[i], g); math.Abs(got-want) > 4/math.Sqrt(n) {
 			t.Errorf("U%d: Spearman %.4f, §B.3 %.6f", i+1, got, want)
 		}
+	}
+}
+
+// TestDriversBenchFORM: for the bench case (cover-flange separation, any of
+// 8 bolts) the α² of the load, the torque and the nut factor match an
+// independent FORM: OpenTURNS 1.20 (Debian python3-openturns, Cobyla from the
+// mean), testdata/bench/drivers_openturns.py on shared/bench's cf8sep case —
+// β 3.7603, α² load 0.2188, torque 0.0161, nut factor 0.7651 (computed) —
+// and rank the inputs nut factor, load, torque.
+func TestDriversBenchFORM(t *testing.T) {
+	t.Parallel()
+	s, err := scenario.Example("cover-flange")
+	if err != nil {
+		t.Fatal(err)
+	}
+	dr, err := decide.RunDrivers(context.Background(), &s.Problem, decide.DriverOptions{NoOmit: true,
+		Settings: montecarlo.Settings{Samples: 1 << 14, Seed: 1, Workers: 2, Modes: []model.Mode{model.Separation}}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	sep := dr.Modes[0]
+	if !sep.DesignFound || math.Abs(sep.Beta-3.7603) > 2e-3 {
+		t.Errorf("β %.4f, OpenTURNS 3.7603", sep.Beta)
+	}
+	want := map[string]float64{"loads.axial_max": 0.2188, "tightening.torque": 0.0161, "tightening.nut_factor": 0.7651, "fatigue.endurance": 0}
+	got := map[string]float64{}
+	for _, in := range sep.Inputs {
+		got[in.Path] = in.Alpha2
+		if w, ok := want[in.Path]; !ok || math.Abs(in.Alpha2-w) > 2e-3 {
+			t.Errorf("%s: α² %.4f, OpenTURNS %.4f", in.Path, in.Alpha2, w)
+		}
+	}
+	if !(got["tightening.nut_factor"] > got["loads.axial_max"] && got["loads.axial_max"] > got["tightening.torque"]) {
+		t.Errorf("ranking %v, want nut factor, load, torque", got)
 	}
 }
