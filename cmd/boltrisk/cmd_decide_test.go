@@ -25,6 +25,12 @@ func TestSpecCommand(t *testing.T) {
 	if code != 0 || !strings.Contains(text, "Callout for the drawing") || !strings.Contains(text, "Torque ") {
 		t.Errorf("spec text: exit %d\n%s", code, text)
 	}
+	// A small target with a rare-event method.
+	code, out, errs = runCLI("spec", "--example", "cover-flange", "--target", "1e-6", "--method", "importance", "--samples", "20000", "--steps", "5", "--json", "--quiet")
+	if code != 0 || !strings.Contains(out, `"method": "importance"`) {
+		t.Fatalf("spec --method importance: exit %d: %s", code, errs)
+	}
+	validate(t, compile(t, "spec"), "spec JSON (importance)", []byte(out))
 	// Impossible target: the modes that make it so and the suggestions.
 	code, out, errs = runCLI("spec", "--example", "cover-flange", "--target", "1e-4", "--samples", "20000", "--steps", "5", "--json", "--quiet")
 	if code != 0 {
@@ -161,5 +167,42 @@ func TestCompareRetune(t *testing.T) {
 	code, _, errs = runCLI("compare", "--example", "cover-flange", "--target", "1e-3")
 	if code != exitUsage || !strings.Contains(errs, "--target is for --retune") {
 		t.Errorf("--target without --retune: exit %d, %s", code, errs)
+	}
+}
+
+// TestREADMEDecisions: the numbers the README's Decisions section quotes
+// from the built-in example come from these commands.
+func TestREADMEDecisions(t *testing.T) {
+	readme, err := os.ReadFile(filepath.Join("..", "..", "README.md"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	sec := string(readme)
+	i := strings.Index(sec, "## Decisions")
+	if i < 0 {
+		t.Fatal("README has no Decisions section")
+	}
+	sec = sec[i:]
+	if j := strings.Index(sec[3:], "\n## "); j >= 0 {
+		sec = sec[:j+3]
+	}
+	const line = "Torque 52.6 N*m ± 10 N*m (±3σ; tool torque-wrench or more precise, dry threads) — every failure mode together below 0.003, upper 95 % confidence bound"
+	if !strings.Contains(sec, "    "+line) {
+		t.Fatal("the README's Decisions section lacks the callout line")
+	}
+	code, out, errs := runCLI("spec", "--example", "cover-flange", "--target", "3e-3", "--samples", "2e5", "--quiet")
+	if code != 0 || !strings.Contains(out, line) || !strings.Contains(out, "55 runs") {
+		t.Errorf("spec: exit %d %s; the README's line is not in:\n%s", code, errs, out)
+	}
+	code, out, _ = runCLI("spec", "--example", "cover-flange", "--target", "1e-4", "--samples", "2e5", "--quiet")
+	for _, want := range []string{"12.1 × the target", "separation 8.80e-04 (8.8 × the target)", "proof 3.12e-04 (3.12 × the target)", "fatigue 2.55e-04 (2.55 × the target)", "the preset change that helps most: condition oiled"} {
+		if code != 0 || !strings.Contains(out, want) {
+			t.Errorf("spec at 1e-4: %q not in the output", want)
+		}
+	}
+	for _, want := range []string{"12.1 × the", "separation 8.8 ×, proof 3.12 ×, fatigue 2.55 ×", "oiled threads help most", "β 3.7603, α² nut factor 0.7651, load 0.2188, torque 0.0161", "exact torque edge 112.22 N·m"} {
+		if !strings.Contains(strings.Join(strings.Fields(sec), " "), want) {
+			t.Errorf("README Decisions lacks %q", want)
+		}
 	}
 }
