@@ -206,3 +206,39 @@ func TestREADMEDecisions(t *testing.T) {
 		}
 	}
 }
+
+// TestSpecPreloadCallout: a preload-controlled method gets a preload
+// callout and only the tools that turn the nut; --out writes the review
+// with the callout and the scenario appendix.
+func TestSpecPreloadCallout(t *testing.T) {
+	ex, _ := os.ReadFile(filepath.Join("..", "..", "testdata", "examples", "cover-flange.yaml"))
+	src := string(ex)
+	for _, r := range [][2]string{{"  method: nut-factor ", "  method: preload #"}, {"  torque: 52 N*m", "  preload: 26 kN"}, {"  tool: torque-wrench ", "  tool: angle-controlled #"}} {
+		if !strings.Contains(src, r[0]) {
+			t.Fatalf("example lacks %q", r[0])
+		}
+		src = strings.Replace(src, r[0], r[1], 1)
+	}
+	dir := t.TempDir()
+	f := filepath.Join(dir, "angle.yaml")
+	os.WriteFile(f, []byte(src), 0o644)
+	out := filepath.Join(dir, "rev")
+	code, js, errs := runCLI("spec", f, "--target", "1e-2", "--samples", "20000", "--json", "--quiet", "--out", out)
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errs)
+	}
+	for _, want := range []string{`"quantity": "preload"`, `"line": "Preload `, `"tool": "angle-controlled"`} {
+		if !strings.Contains(js, want) {
+			t.Errorf("preload spec JSON lacks %s", want)
+		}
+	}
+	md, _ := os.ReadFile(filepath.Join(out, "report.md"))
+	for _, want := range []string{"Callout for the drawing", "Preload ", "Appendix: scenario file", "tool: angle-controlled #"} {
+		if !strings.Contains(string(md), want) {
+			t.Errorf("spec review lacks %q", want)
+		}
+	}
+	if code, _, errs := runCLI("spec", f, "--target", "1e-2", "--tools", "tension-controlled"); code != exitUsage || !strings.Contains(errs, "tensioner") {
+		t.Errorf("a tensioner for a turned nut: exit %d %s", code, errs)
+	}
+}

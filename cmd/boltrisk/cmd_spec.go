@@ -105,7 +105,7 @@ func runSpec(ctx context.Context, opts *SpecOptions) error {
 	if strings.TrimSpace(opts.Tools) != "" {
 		names = strings.Split(opts.Tools, ",")
 	}
-	tools, err := scenario.ToolsControlling(controls, names)
+	tools, err := scenario.ToolsControlling(controls, in.Tensioned, names)
 	if err != nil {
 		return usagef("--tools %q: %v", opts.Tools, err)
 	}

@@ -118,14 +118,15 @@ func (s *Scenario) PresetChanges() []Change {
 }
 
 // ToolsControlling returns the tool presets controlling quantity ("torque"
-// or "preload"), or those named, checked: an unknown name is an error
-// listing the allowed names with the nearest one; a tool controlling the
-// other quantity is refused.
-func ToolsControlling(controls string, names []string) ([]Tool, error) {
+// or "preload") the way the joint is tightened (tensioned: by a tensioner,
+// no nut turned under load), or those named, checked: an unknown name is an
+// error listing the allowed names with the nearest one; a tool controlling
+// the other quantity, or tightening the other way, is refused.
+func ToolsControlling(controls string, tensioned bool, names []string) ([]Tool, error) {
 	if len(names) == 0 {
 		var out []Tool
 		for _, t := range Tools {
-			if t.Controls == controls {
+			if t.Controls == controls && t.Tensioner == tensioned {
 				out = append(out, t)
 			}
 		}
@@ -145,6 +146,10 @@ func ToolsControlling(controls string, names []string) ([]Tool, error) {
 		}
 		if t.Controls != controls {
 			return nil, fmt.Errorf("tool %q controls %s; this joint is tightened by %s", n, t.Controls, controls)
+		}
+		if t.Tensioner != tensioned {
+			how := map[bool]string{true: "a tensioner (no nut turned under load)", false: "turning the nut"}
+			return nil, fmt.Errorf("tool %q tightens by %s; this joint is tightened by %s", n, how[t.Tensioner], how[tensioned])
 		}
 		out = append(out, t)
 	}
