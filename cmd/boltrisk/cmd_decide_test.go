@@ -111,6 +111,15 @@ func TestDriversCommand(t *testing.T) {
 	if _, err := os.Stat(filepath.Join(dir, "drivers.png")); err != nil {
 		t.Error("no drivers.png in the review")
 	}
+	code, out, errs = runCLI("drivers", "--example", "cover-flange", "--method", "importance", "--json", "--quiet")
+	if code != 0 || !strings.Contains(out, `"method": "importance"`) {
+		t.Fatalf("drivers --method importance: exit %d: %s", code, errs)
+	}
+	validate(t, compile(t, "drivers"), "drivers JSON (importance)", []byte(out))
+	code, _, errs = runCLI("drivers", "--example", "cover-flange", "--method", "subset")
+	if code != exitUsage || !strings.Contains(errs, "crude or importance") {
+		t.Errorf("drivers --method subset: exit %d, %s", code, errs)
+	}
 	code, _, errs = runCLI("drivers", "--example", "cover-flange", "--subsample", "3")
 	if code != exitUsage || !strings.Contains(errs, "--subsample 3") {
 		t.Errorf("bad --subsample: exit %d, %s", code, errs)

@@ -32,7 +32,11 @@ over the bolts):
   Spearman  the rank correlation of the input with the mode's safety factor, from
             a fixed-size seeded subsample of the crude run (memory stays flat)
   fixed     the probability with the input fixed at its median (omission
-            sensitivity), re-run with the same random numbers`
+            sensitivity), re-run with the same random numbers
+
+--method importance takes the estimates, the shifts and the omission runs from
+importance sampling at the design points (small probabilities); the rank
+correlations still come from a crude subsample.`
 
 func newDriversCmd(stdout, stderr io.Writer, runF func(context.Context, *DriversOptions) error) *cobra.Command {
 	opts := &DriversOptions{common: common{Out: stdout, ErrOut: stderr}}
@@ -60,18 +64,24 @@ simulate --drivers adds the same section to simulate's output.
 	}
 	opts.addFlags(cmd, false)
 	cmd.Flags().IntVar(&opts.Subsample, "subsample", decide.DefaultSubsample, "samples behind the rank correlations (the first of the run), 16 … 4194304")
-	opts.Run.add(cmd, false, "")
+	opts.Run.add(cmd, false, "crude")
 	opts.Output.add(cmd)
 	return cmd
 }
 
-// driversOf runs the drivers study of a scenario with crude settings.
+// driversOf runs the drivers study of a scenario: by crude Monte Carlo, or
+// with method importance by importance sampling (the rank correlations
+// from a crude subsample).
 func driversOf(ctx context.Context, s *scenario.Scenario, set montecarlo.Settings, subsample int) (*decide.Drivers, error) {
 	if subsample < 16 || subsample > 1<<22 {
 		return nil, usagef("--subsample %d: from 16 to 4194304", subsample)
 	}
+	m := set.Method
+	if m != montecarlo.Importance && m != montecarlo.Crude {
+		return nil, usagef("--method %s: drivers take crude or importance", m)
+	}
 	set.Method, set.Precision, set.Progress = montecarlo.Crude, 0, nil
-	d, err := decide.RunDrivers(ctx, &s.Problem, decide.DriverOptions{Settings: set, Subsample: subsample})
+	d, err := decide.RunDrivers(ctx, &s.Problem, decide.DriverOptions{Settings: set, Subsample: subsample, Method: m})
 	if errors.Is(err, montecarlo.ErrInterrupted) {
 		return nil, errors.New("interrupted: the drivers need the whole run; nothing was written")
 	}

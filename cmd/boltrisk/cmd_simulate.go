@@ -106,7 +106,13 @@ func runSimulate(ctx context.Context, opts *SimulateOptions) error {
 	opts.Run.timing(opts.ErrOut, res.Evaluations, res.Elapsed)
 	doc := report.Simulation(s, res, report.Run{Samples: set.Samples, Interval: set.Interval}, toolVersion())
 	if opts.Drivers && !res.Partial {
-		d, err := driversOf(ctx, s, set, decide.DefaultSubsample)
+		dset := set
+		if dset.Method != montecarlo.Importance && res.Method != "importance" {
+			dset.Method = montecarlo.Crude
+		} else {
+			dset.Method = montecarlo.Importance
+		}
+		d, err := driversOf(ctx, s, dset, decide.DefaultSubsample)
 		if err != nil {
 			return err
 		}

@@ -33,6 +33,11 @@ type DriverOptions struct {
 	Subsample int  // default DefaultSubsample
 	NoFORM    bool // skip the design points
 	NoOmit    bool // skip the omission runs
+	// Method is Crude (the default: estimates and shifts from one crude
+	// run) or Importance (estimates, shifts and omission runs by importance
+	// sampling at the design points, for small probabilities; the rank
+	// correlations still from a crude subsample).
+	Method montecarlo.Method
 }
 
 // InputDriver is what one uncertain input (per-bolt inputs grouped over
@@ -91,6 +96,10 @@ type Drivers struct {
 	Seed       uint64
 	Confidence float64
 	OmitRuns   int
+	Method     string // of the estimates and shifts: crude or importance
+	// ShiftNote says how the shifts of per-bolt inputs were formed by
+	// importance sampling ("" for crude).
+	ShiftNote string
 }
 
 // degenerate returns d collapsed onto its median with the same native
@@ -158,6 +167,12 @@ func RunDrivers(ctx context.Context, p *montecarlo.Problem, o DriverOptions) (*D
 	}
 	s = s.WithDefaults()
 	s.Precision, s.Progress, s.Method = 0, nil, montecarlo.Crude
+	if o.Method != montecarlo.Crude && o.Method != montecarlo.Importance {
+		return nil, fmt.Errorf("drivers: method %s is not supported (crude or importance)", o.Method)
+	}
+	if o.Method == montecarlo.Importance && len(p.Corr) > 0 {
+		return nil, errors.New("drivers by importance sampling: correlated inputs are not supported (their shifts live in the copula's coordinates); use crude")
+	}
 	if o.Subsample == 0 {
 		o.Subsample = DefaultSubsample
 	}
@@ -173,7 +188,11 @@ func RunDrivers(ctx context.Context, p *montecarlo.Problem, o DriverOptions) (*D
 	}
 	modes := k.Modes()
 	ng, ne := len(p.Vars), len(modes)+1
-	out := &Drivers{Seed: s.Seed, Confidence: s.Confidence}
+	out := &Drivers{Seed: s.Seed, Confidence: s.Confidence, Method: o.Method.String()}
+	crudeSamples := s.Samples
+	if o.Method == montecarlo.Importance {
+		crudeSamples = min(s.Samples, int64(o.Subsample)) // the rank subsample only
+	}
 	group := map[string]int{}
 	for i, v := range p.Vars {
 		out.Inputs = append(out.Inputs, v.Name)
@@ -197,9 +216,9 @@ func RunDrivers(ctx context.Context, p *montecarlo.Problem, o DriverOptions) (*D
 		}
 	}
 	// The crude pass: chunks of the crude run's streams, blocks of its length.
-	nChunks := int((s.Samples + montecarlo.ChunkSize - 1) / montecarlo.ChunkSize)
+	nChunks := int((crudeSamples + montecarlo.ChunkSize - 1) / montecarlo.ChunkSize)
 	accs := make([]acc, nChunks)
-	sub := min(int64(o.Subsample), s.Samples)
+	sub := min(int64(o.Subsample), crudeSamples)
 	subX := make([]float64, int(sub)*ng)
 	subSF := make([]float64, int(sub)*ne)
 	subOK := make([]bool, sub)
@@ -231,7 +250,7 @@ func RunDrivers(ctx context.Context, p *montecarlo.Problem, o DriverOptions) (*D
 				}
 				a := newAcc(ne, ng)
 				rng.Seed(&pcg, s.Seed, uint64(c))
-				n := min(int64(montecarlo.ChunkSize), s.Samples-c*montecarlo.ChunkSize)
+				n := min(int64(montecarlo.ChunkSize), crudeSamples-c*montecarlo.ChunkSize)
 				for j0 := int64(0); j0 < n; j0 += int64(block) {
 					m := int(min(int64(block), n-j0))
 					k.Draw(&pcg, rows, m)
@@ -371,6 +390,11 @@ func RunDrivers(ctx context.Context, p *montecarlo.Problem, o DriverOptions) (*D
 		}
 	}
 	out.Subsample = int(sub)
+	if o.Method == montecarlo.Importance {
+		if err := importanceShifts(ctx, p, k, s, out, coordGroup, zc); err != nil {
+			return nil, err
+		}
+	}
 	if !o.NoFORM {
 		formAlphas(k, out, coordGroup, modes)
 	}
@@ -379,8 +403,8 @@ func RunDrivers(ctx context.Context, p *montecarlo.Problem, o DriverOptions) (*D
 			q := &montecarlo.Problem{Base: p.Base, Vars: append([]montecarlo.Var(nil), p.Vars...), Corr: p.Corr}
 			q.Vars[g].Dist = degenerate(q.Vars[g].Dist)
 			rs := s
-			rs.ProbabilitiesOnly = true
-			r, err := montecarlo.Run(ctx, q, rs)
+			rs.ProbabilitiesOnly, rs.Method = true, o.Method
+			r, err := montecarlo.Estimate(ctx, q, rs)
 			out.OmitRuns++
 			if err != nil {
 				return nil, fmt.Errorf("%s fixed at its median: %w", out.Inputs[g], err)
@@ -399,6 +423,76 @@ func RunDrivers(ctx context.Context, p *montecarlo.Problem, o DriverOptions) (*D
 		}
 	}
 	return out, nil
+}
+
+// importanceShifts replaces the estimates and the failure-conditional
+// shifts by those of an importance-sampling run (its self-normalised
+// E[U | event] per coordinate, with the standard errors): a shared input's
+// coordinate directly; a per-bolt input's failing bolt approximated by the
+// sum over the bolts' coordinates (only the failing bolt's is shifted when
+// one bolt fails at a time), with its shared part weighted √ρ and the own
+// parts √(1 − ρ).
+func importanceShifts(ctx context.Context, p *montecarlo.Problem, k *montecarlo.Kernel, s montecarlo.Settings, out *Drivers, coordGroup []int, zc float64) error {
+	is := s
+	is.Method, is.ProbabilitiesOnly = montecarlo.Importance, true
+	r, err := montecarlo.Estimate(ctx, p, is)
+	if err != nil {
+		return err
+	}
+	if r.Rare == nil || len(r.Rare.Events) != len(out.Modes) {
+		return errors.New("drivers: the importance-sampling run returned no per-event shifts")
+	}
+	ng := len(out.Inputs)
+	for e := range out.Modes {
+		md := &out.Modes[e]
+		if e < len(r.Modes) {
+			md.Estimate = r.Modes[e].Estimate
+		} else {
+			md.Estimate = r.Any
+		}
+		ev := r.Rare.Events[e]
+		sum, v := make([]float64, ng), make([]float64, ng)
+		for i := range coordGroup {
+			if i >= len(ev.Shift) {
+				break
+			}
+			path, bolt, part := k.Coordinate(i)
+			g := coordGroup[i]
+			if part {
+				for gi, n := range out.Inputs {
+					if n == path {
+						g = gi
+					}
+				}
+			}
+			w := 1.0
+			if rho := p.Vars[g].Shared; rho > 0 {
+				if part {
+					w = math.Sqrt(rho)
+				} else if bolt >= 0 {
+					w = math.Sqrt(1 - rho)
+				}
+			}
+			sum[g] += w * ev.Shift[i]
+			v[g] += w * w * ev.ShiftSE[i] * ev.ShiftSE[i]
+		}
+		var failed int64
+		if d := ev.Importance; d != nil {
+			failed = d.Failed
+		}
+		for g := range ng {
+			in := &md.Inputs[g]
+			h := zc * math.Sqrt(v[g])
+			in.Shift, in.ShiftLo, in.ShiftHi, in.ShiftN = sum[g], sum[g]-h, sum[g]+h, failed
+		}
+	}
+	out.Samples, out.Invalid = r.Samples, r.Invalid
+	if k.Bolts() > 1 {
+		out.ShiftNote = "a per-bolt input's shift is the sum over the bolts' coordinates, the failing bolt's when one bolt fails at a time"
+	} else {
+		out.ShiftNote = "self-normalised weights"
+	}
+	return nil
 }
 
 // formAlphas sets each mode's α² from its most probable component's

@@ -162,3 +162,36 @@ func TestDriversBenchFORM(t *testing.T) {
 		t.Errorf("ranking %v, want nut factor, load, torque", got)
 	}
 }
+
+// TestDriversImportance: the same closed forms (reference-data-2.md §B.3:
+// E[Ui | g ≤ 0] = αi·φ(β)/Φ(−β)) at a small probability, 10⁻⁶, from
+// importance sampling at the design point (99.9 % intervals).
+func TestDriversImportance(t *testing.T) {
+	t.Parallel()
+	p, exact := problemtest.LognormalSeparation()
+	p.Base.Torque = problemtest.LognormalSeparationTorque(p, 1e-6)
+	pf := exact(p.Base.Torque)
+	beta := -distuv.UnitNormal.Quantile(pf)
+	sK, sP := p.Vars[0].Dist.B, p.Vars[1].Dist.B
+	h := math.Hypot(sK, sP)
+	lambda := distuv.UnitNormal.Prob(beta) / pf
+	dr, err := decide.RunDrivers(context.Background(), p, decide.DriverOptions{Method: montecarlo.Importance,
+		Settings: montecarlo.Settings{Samples: 1 << 20, Seed: 11, Workers: 2, Confidence: problemtest.Conf999, Modes: []model.Mode{model.Separation}}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if dr.Method != "importance" {
+		t.Errorf("method %s", dr.Method)
+	}
+	sep := dr.Modes[0]
+	problemtest.Contains(t, "separation (importance)", sep.Estimate, pf)
+	for i, a := range []float64{sK / h, sP / h} {
+		in := sep.Inputs[i]
+		if want := a * lambda; !(in.ShiftLo <= want && want <= in.ShiftHi) {
+			t.Errorf("%s: shift %.4f [%.4f, %.4f], exact %.4f", in.Path, in.Shift, in.ShiftLo, in.ShiftHi, want)
+		}
+		other := []float64{sP, sK}[i]
+		problemtest.Contains(t, in.Path+" omitted (importance)", in.Omitted, distuv.UnitNormal.CDF(-beta*h/other))
+		t.Logf("%s: shift %.4f [%.4f, %.4f] (exact %.4f); fixed at median %.4g (exact %.4g)", in.Path, in.Shift, in.ShiftLo, in.ShiftHi, a*lambda, in.Omitted.P, distuv.UnitNormal.CDF(-beta*h/other))
+	}
+}

@@ -49,13 +49,17 @@ type ModeDriversDoc struct {
 // DriversBody is the drivers study, inside the drivers document and
 // simulate's with --drivers.
 type DriversBody struct {
-	Samples    int64            `json:"samples"`
-	Invalid    int64            `json:"invalid_samples"`
-	Subsample  int              `json:"rank_subsample"`
-	Seed       uint64           `json:"seed"`
-	Confidence float64          `json:"confidence"`
-	OmitRuns   int              `json:"omission_runs"`
-	Modes      []ModeDriversDoc `json:"modes"`
+	Samples    int64   `json:"samples"`
+	Invalid    int64   `json:"invalid_samples"`
+	Subsample  int     `json:"rank_subsample"`
+	Seed       uint64  `json:"seed"`
+	Confidence float64 `json:"confidence"`
+	OmitRuns   int     `json:"omission_runs"`
+	// Method of the estimates, shifts and omission runs: crude or
+	// importance (then ShiftNote says how the shifts were formed).
+	Method    string           `json:"method" jsonschema:"enum=crude,enum=importance"`
+	ShiftNote string           `json:"shift_note,omitempty"`
+	Modes     []ModeDriversDoc `json:"modes"`
 }
 
 // DriversDoc is the result of `boltrisk drivers --json`.
@@ -71,7 +75,8 @@ type DriversDoc struct {
 
 // DriversBodyOf formats a drivers study.
 func DriversBodyOf(d *decide.Drivers) DriversBody {
-	b := DriversBody{Samples: d.Samples, Invalid: d.Invalid, Subsample: d.Subsample, Seed: d.Seed, Confidence: d.Confidence, OmitRuns: d.OmitRuns}
+	b := DriversBody{Samples: d.Samples, Invalid: d.Invalid, Subsample: d.Subsample, Seed: d.Seed, Confidence: d.Confidence, OmitRuns: d.OmitRuns,
+		Method: d.Method, ShiftNote: d.ShiftNote}
 	for _, m := range d.Modes {
 		key, title := "any", "Any mode"
 		if !m.Any {
@@ -106,11 +111,15 @@ func Drivers(s *scenario.Scenario, d *decide.Drivers, version string) DriversDoc
 
 // DriversSections are the drivers as review sections, one table per mode.
 func DriversSections(b DriversBody) []Section {
+	from := fmt.Sprintf("From a crude run of %d valid samples (seed %d)", b.Samples, b.Seed)
+	if b.Method == "importance" {
+		from = fmt.Sprintf("From importance sampling at the design points, %d valid samples (seed %d; %s)", b.Samples, b.Seed, b.ShiftNote)
+	}
 	out := []Section{{Heading: "What drives each mode", Paragraphs: []string{fmt.Sprintf(
-		"From a crude run of %d valid samples (seed %d): α² with its sign from each mode's FORM design point (Hasofer–Lind; + load-like, − resistance-like; a union such as any mode has no single design point); "+
+		"%s: α² with its sign from each mode's FORM design point (Hasofer–Lind; + load-like, − resistance-like; a union such as any mode has no single design point); "+
 			"the failure-conditional shift, the mean normal score of each input over the failed samples in standard deviations, with its %.4g %% interval; "+
 			"Spearman's rank correlation of each input with the mode's safety factor over the first %d samples; and the probability with the input fixed at its median (the same random numbers). Per-bolt inputs are grouped over the bolts.",
-		b.Samples, b.Seed, 100*b.Confidence, b.Subsample)}}}
+		from, 100*b.Confidence, b.Subsample)}}}
 	for _, m := range b.Modes {
 		head := fmt.Sprintf("%s: %s", m.Title, FormatProb(m.Probability))
 		if m.Beta != nil {
