@@ -101,6 +101,12 @@ func SignOffSheet(s *scenario.Scenario, doc SimDoc, target float64, targetFrom s
 		}
 	}
 	so.Governing = "Governing mode: " + gov + " (the largest upper bound)."
+	if gov == "" {
+		so.Governing = "Governing mode: none (no mode is active)."
+	}
+	if doc.Partial {
+		so.Run += " PARTIAL RESULT: the run was interrupted; the verdicts rest on the samples done."
+	}
 	if d := doc.Drivers; d != nil {
 		for _, m := range d.Modes {
 			if m.Key != gov {
