@@ -139,7 +139,7 @@ func runCompare(ctx context.Context, opts *CompareOptions) error {
 		return runErr
 	}
 	doc := report.Compare(ss, names, pr, report.Run{Samples: set.Samples, Interval: set.Interval}, toolVersion())
-	doc.Retune = rdoc
+	report.WithRetune(&doc, rdoc)
 	if opts.Output.Dir != "" && !pr.Partial {
 		figs, err := report.CompareFigures(names, pr, sys)
 		if err != nil {

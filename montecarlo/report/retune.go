@@ -26,6 +26,9 @@ type RetuneVariantDoc struct {
 	ToleranceRelative float64 `json:"tolerance_relative"`
 	FileTolerance     float64 `json:"file_tolerance_relative"`
 	Runs              int     `json:"runs"`
+	// Any is the variant's any-mode probability at its callout, from the
+	// paired comparison.
+	Any *ProbDoc `json:"any_mode,omitempty"`
 }
 
 // RetuneDoc says that a comparison ran every variant at its own callout.
@@ -47,14 +50,33 @@ func Retune(target float64, names []string, fileNominals []float64, rs []decide.
 	return d
 }
 
+// WithRetune attaches the retune part to a comparison and copies each
+// variant's any-mode probability at its callout into it.
+func WithRetune(doc *CompareDoc, d *RetuneDoc) {
+	doc.Retune = d
+	if d == nil {
+		return
+	}
+	for i := range d.Variants {
+		if i < len(doc.Variants) && len(doc.Variants[i].Modes) > 0 {
+			p := doc.Variants[i].Modes[len(doc.Variants[i].Modes)-1]
+			d.Variants[i].Any = &p
+		}
+	}
+}
+
 // RetuneSection is the side-by-side table of the variants' callouts.
 func RetuneSection(d *RetuneDoc, sys units.System) Section {
-	t := &Table{Header: []string{"variant", "setting", "callout (compared at)", "window (upper bounds)", "widest tolerance", "file's setting"}}
+	t := &Table{Header: []string{"variant", "setting", "callout (compared at)", "window (upper bounds)", "widest tolerance", "any mode at the callout, own scatter", "file's setting"}}
 	for _, v := range d.Variants {
 		dim := scenario.FieldDim(v.Input)
 		f := func(x float64) string { return sys.Format(x, dim) }
+		any := "-"
+		if v.Any != nil {
+			any = FormatProb(*v.Any)
+		}
 		t.Rows = append(t.Rows, []string{v.Name, v.Input, f(v.Nominal), f(v.WindowLow) + " … " + f(v.WindowHigh),
-			fmt.Sprintf("±%.3g %%", 100*v.ToleranceRelative), f(v.FileNominal)})
+			fmt.Sprintf("±%.3g %%", 100*v.ToleranceRelative), any, f(v.FileNominal)})
 	}
 	return Section{Heading: "Each variant at its own callout", Table: t, Paragraphs: []string{fmt.Sprintf(
 		"Every variant was moved to its own callout for the target %s (as 'boltrisk spec' finds it: the geometric middle of its upper-bound window at its own scatter) and the comparison below runs them there, in lock step.", fmtTarget(d.Target))}}
