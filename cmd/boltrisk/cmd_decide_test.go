@@ -129,7 +129,11 @@ func TestDriversCommand(t *testing.T) {
 // TestCompareRetune: each variant is compared at its own callout, and that
 // callout equals what 'boltrisk spec' gives for the variant alone.
 func TestCompareRetune(t *testing.T) {
-	code, out, errs := runCLI("compare", "--example", "cover-flange", "--retune", "--target", "1e-2", "--samples", "20000", "--json", "--quiet")
+	samples, steps := "20000", "9"
+	if testing.Short() { // the race detector's run
+		samples, steps = "5000", "5"
+	}
+	code, out, errs := runCLI("compare", "--example", "cover-flange", "--retune", "--target", "1e-2", "--samples", samples, "--retune-steps", steps, "--json", "--quiet")
 	if code != 0 {
 		t.Fatalf("exit %d: %s", code, errs)
 	}
@@ -157,7 +161,7 @@ func TestCompareRetune(t *testing.T) {
 		}
 		f := filepath.Join(dir, v.Name+".yaml")
 		os.WriteFile(f, []byte(src), 0o644)
-		code, out, errs := runCLI("spec", f, "--target", "1e-2", "--samples", "20000", "--json", "--quiet")
+		code, out, errs := runCLI("spec", f, "--target", "1e-2", "--samples", samples, "--steps", steps, "--json", "--quiet")
 		if code != 0 {
 			t.Fatalf("spec %s: exit %d: %s", v.Name, code, errs)
 		}
@@ -182,6 +186,9 @@ func TestCompareRetune(t *testing.T) {
 // TestREADMEDecisions: the numbers the README's Decisions section quotes
 // from the built-in example come from these commands.
 func TestREADMEDecisions(t *testing.T) {
+	if testing.Short() {
+		t.Skip("runs two full spec commands (go test ./... runs it)")
+	}
 	readme, err := os.ReadFile(filepath.Join("..", "..", "README.md"))
 	if err != nil {
 		t.Fatal(err)
