@@ -21,6 +21,7 @@ type SimulateOptions struct {
 	Output    outFlags
 	LoadCurve string
 	LoadSteps int
+	Part      partFlags
 }
 
 func newSimulateCmd(stdout, stderr io.Writer, runF func(context.Context, *SimulateOptions) error) *cobra.Command {
@@ -67,10 +68,14 @@ marked partial.
 	opts.Output.add(cmd)
 	cmd.Flags().StringVar(&opts.LoadCurve, "load-curve", "", "with --out: also draw the probability of each mode against a multiplier LO..HI on the service loads, e.g. 0.5..2")
 	cmd.Flags().IntVar(&opts.LoadSteps, "load-steps", 9, "values of the load multiplier for --load-curve")
+	opts.Part.add(cmd)
 	return cmd
 }
 
 func runSimulate(ctx context.Context, opts *SimulateOptions) error {
+	if opts.Part.Spec != "" {
+		return runSimulatePart(ctx, opts)
+	}
 	s, sys, err := opts.scenario()
 	if err != nil {
 		return err

@@ -12,6 +12,7 @@ import (
 var Documents = map[string]any{
 	"nominal":  NominalDoc{},
 	"simulate": SimDoc{},
+	"part":     PartDoc{},
 	"sweep":    SweepDoc{},
 	"compare":  CompareDoc{},
 }
