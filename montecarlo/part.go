@@ -308,3 +308,19 @@ func MissingParts(parts []*PartState, n int) []int {
 	}
 	return out
 }
+
+// ResolvePart returns the method note of a run of p split into parts:
+// auto's choice when its pilot resolves to crude Monte Carlo (as Estimate
+// would), "" for crude; an error naming what to use for settings that
+// cannot be split.
+func ResolvePart(ctx context.Context, p *Problem, s Settings) (string, error) {
+	if err := s.Validate(); err != nil {
+		return "", err
+	}
+	s.defaults()
+	k, err := NewKernel(p, s.Modes)
+	if err != nil {
+		return "", err
+	}
+	return partSettings(ctx, k, &s)
+}

@@ -57,6 +57,8 @@ func TestMergeContract(t *testing.T) {
 		{3, []string{"simulate", "--example", "cover-flange", "--samples", "100000", "--seed", "5"}},
 		{7, []string{"simulate", file, "--samples", "150001", "--seed", "9", "--method", "crude"}},
 		{3, []string{"simulate", "--example", "cover-flange", "--samples", "50000", "--seed", "2", "--method", "auto", "--modes", "fatigue,separation"}},
+		{3, []string{"sweep", "--example", "cover-flange", "--vary", "torque=40..70N*m", "--steps", "4", "--samples", "70000"}},
+		{7, []string{"sweep", file, "--vary", "load=0.5..2", "--steps", "3", "--samples", "120000", "--method", "auto"}},
 	} {
 		t.Run(fmt.Sprintf("%d parts %s", tc.n, tc.args[1]), func(t *testing.T) {
 			dir := t.TempDir()
@@ -163,6 +165,8 @@ func TestPartBadInput(t *testing.T) {
 		{"subset", append(sim, "--part", "1/2", "--method", "subset"), 2, "subset simulation is sequential"},
 		{"importance", append(sim, "--part", "1/2", "--method", "importance"), 2, "methods that can be split: crude"},
 		{"out in a part", append(sim, "--part", "1/2", "--out", filepath.Join(dir, "rev")), 2, "give them to 'boltrisk merge'"},
+		{"sweep target", []string{"sweep", "--example", "cover-flange", "--vary", "torque=40..70N*m", "--target", "1e-3", "--part", "1/2", "--part-file", filepath.Join(dir, "never.json")}, 2, "bisection"},
+		{"sweep max-scatter", []string{"sweep", "--example", "cover-flange", "--max-scatter", "torque", "--target", "1e-3", "--part", "1/2", "--part-file", filepath.Join(dir, "never.json")}, 2, "sequential"},
 		{"truncated", []string{"merge", truncated, good[1]}, 1, "truncated part file"},
 		{"changed", []string{"merge", flipped, good[1]}, 1, "checksum mismatch"},
 		{"empty", []string{"merge", empty}, 1, "the file is empty"},

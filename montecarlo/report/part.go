@@ -77,12 +77,11 @@ type PartSettings struct {
 
 // PartVary is the swept input of a sweep part.
 type PartVary struct {
-	Path   string  `json:"path"`
-	Lo     float64 `json:"lo"`
-	Hi     float64 `json:"hi"`
-	Steps  int     `json:"steps"`
-	Log    bool    `json:"log"`
-	Target float64 `json:"target,omitempty"`
+	// Spec is the --vary argument (INPUT=LO..HI[UNIT]) and Steps --steps.
+	Spec  string `json:"spec"`
+	Steps int    `json:"steps"`
+	// MethodNote says what auto chose for every step, and why.
+	MethodNote string `json:"method_note,omitempty"`
 }
 
 // PartStep is the exact state of one run of a part.
