@@ -134,7 +134,7 @@ the torque, tolerance and lubrication that make it safe.
 		newCatalogCmd(stdout),
 		newExampleCmd(stdout),
 		newSchemaCmd(stdout),
-		newMergeCmd(stdout, stderr), newClusterScriptCmd(stdout),
+		newMergeCmd(stdout, stderr), newClusterScriptCmd(stdout), newRankCmd(stdout, stderr),
 	)
 	return root
 }

@@ -13,6 +13,7 @@ var Documents = map[string]any{
 	"nominal":  NominalDoc{},
 	"simulate": SimDoc{},
 	"part":     PartDoc{},
+	"rank":     RankDoc{},
 	"sweep":    SweepDoc{},
 	"compare":  CompareDoc{},
 }
