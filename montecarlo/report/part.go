@@ -257,6 +257,11 @@ func DecodePart(file string, data []byte) (*PartDoc, error) {
 	if hex.EncodeToString(src[:]) != d.Scenario.SHA256 {
 		return nil, fmt.Errorf("%s: the scenario text does not match its SHA-256 %s", file, d.Scenario.SHA256)
 	}
+	for _, st := range d.Steps {
+		if st.Method != "crude" {
+			return nil, fmt.Errorf("%s: a part of a %s run: only crude Monte Carlo (and auto resolved to it) merges exactly; %s is sequential or adaptive and runs on one machine", file, st.Method, st.Method)
+		}
+	}
 	if d.Parts < 1 || d.Part < 1 || d.Part > d.Parts || len(d.Steps) == 0 {
 		return nil, fmt.Errorf("%s: part %d of %d with %d steps: not a valid part", file, d.Part, d.Parts, len(d.Steps))
 	}
