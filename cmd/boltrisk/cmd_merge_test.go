@@ -61,6 +61,9 @@ func TestMergeContract(t *testing.T) {
 		{7, []string{"sweep", file, "--vary", "load=0.5..2", "--steps", "3", "--samples", "120000", "--method", "auto"}},
 	} {
 		t.Run(fmt.Sprintf("%d parts %s", tc.n, tc.args[1]), func(t *testing.T) {
+			if testing.Short() && tc.n != 3 {
+				t.Skip("-short: the 3-part cases only")
+			}
 			dir := t.TempDir()
 			one := append(append([]string{}, tc.args...), "--workers", "2", "--quiet")
 			code, want, errs := runCLI(append(one, "--json")...)

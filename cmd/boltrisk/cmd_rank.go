@@ -2,6 +2,7 @@ package main
 
 import (
 	"context"
+	"encoding/json"
 	"errors"
 	"fmt"
 	"io"
@@ -73,12 +74,12 @@ func scenarioFiles(args []string) ([]string, error) {
 			continue
 		}
 		var m []string
-		for _, pat := range []string{"*.yaml", "*.yml"} {
+		for _, pat := range []string{"*.yaml", "*.yml", "*.json"} {
 			g, _ := filepath.Glob(filepath.Join(a, pat))
 			m = append(m, g...)
 		}
 		if len(m) == 0 {
-			return nil, fmt.Errorf("folder %s holds no scenario files (*.yaml, *.yml)", a)
+			return nil, fmt.Errorf("folder %s holds no scenario files (*.yaml, *.yml) or simulate results (*.json)", a)
 		}
 		sort.Strings(m)
 		out = append(out, m...)
@@ -94,17 +95,28 @@ func runRank(ctx context.Context, opts *RankOptions) error {
 	if err != nil {
 		return err
 	}
-	var ss []*scenario.Scenario
-	for _, f := range files {
-		s, err := scenario.Load(f)
-		if err != nil {
-			return err // nothing run yet, nothing written
+	// Every input is read before anything runs: a bad one stops the
+	// ranking with nothing run or written. A .json input is a simulate
+	// document already run (for example by one task of a job array).
+	ss := make([]*scenario.Scenario, len(files))
+	done := make([]*report.SimDoc, len(files))
+	for i, f := range files {
+		if strings.EqualFold(filepath.Ext(f), ".json") {
+			if done[i], err = readSimDoc(f); err != nil {
+				return err
+			}
+			continue
 		}
-		ss = append(ss, s)
+		if ss[i], err = scenario.Load(f); err != nil {
+			return err
+		}
 	}
 	target := opts.Target
 	if !opts.Cmd().Flags().Changed("target") {
 		for _, s := range ss {
+			if s == nil {
+				continue
+			}
 			if t := s.Study.TargetProbability; t > 0 && (target == 0 || t < target) {
 				target = t // the strictest
 			}
@@ -127,6 +139,11 @@ func runRank(ctx context.Context, opts *RankOptions) error {
 		}
 	}
 	for i, s := range ss {
+		if s == nil {
+			entries = append(entries, report.RankEntry{Doc: *done[i]})
+			partial = partial || done[i].Partial
+			continue
+		}
 		set, err := opts.Run.settings(s)
 		if err != nil {
 			return err
@@ -143,7 +160,7 @@ func runRank(ctx context.Context, opts *RankOptions) error {
 			return fmt.Errorf("%s: %w", files[i], runErr)
 		}
 		doc := report.Simulation(s, res, report.Run{Samples: set.Samples, Interval: set.Interval}, toolVersion())
-		e := report.RankEntry{Scenario: s, Result: res, Doc: doc}
+		e := report.RankEntry{Doc: doc}
 		if stage != "" {
 			slug := strings.TrimSuffix(filepath.Base(files[i]), filepath.Ext(files[i]))
 			if slugs[slug]++; slugs[slug] > 1 {
@@ -218,4 +235,30 @@ func replaceDir(stage, dir string) error {
 		return fmt.Errorf("cannot write %s: %w", dir, err)
 	}
 	return nil
+}
+
+// readSimDoc reads a document written by 'simulate --json'.
+func readSimDoc(file string) (*report.SimDoc, error) {
+	b, err := os.ReadFile(file)
+	if err != nil {
+		return nil, fmt.Errorf("cannot read result: %w", err)
+	}
+	var d report.SimDoc
+	if err := json.Unmarshal(b, &d); err != nil {
+		return nil, fmt.Errorf("%s: not a simulate result (%v); rank takes scenario files (*.yaml) or the JSON of 'simulate --json'", file, err)
+	}
+	switch {
+	case d.Kind != "simulate":
+		return nil, fmt.Errorf("%s: a %q document; rank takes scenario files or the JSON of 'simulate --json'", file, d.Kind)
+	case d.SchemaVersion != report.SchemaVersion:
+		return nil, fmt.Errorf("%s: schema version %d; this boltrisk reads version %d (re-run the joint)", file, d.SchemaVersion, report.SchemaVersion)
+	}
+	hasAny := false
+	for _, m := range d.Modes {
+		hasAny = hasAny || m.Key == "any"
+	}
+	if !hasAny {
+		return nil, fmt.Errorf("%s: the result has no any-mode probability", file)
+	}
+	return &d, nil
 }

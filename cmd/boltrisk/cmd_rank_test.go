@@ -74,6 +74,33 @@ func TestRank(t *testing.T) {
 		t.Errorf("text: exit %d:\n%s", code, text)
 	}
 	checkIndexInBrowser(t, filepath.Join(out, "index.html"), 2)
+
+	// A joint run elsewhere (one task of a job array): its simulate JSON
+	// ranks as the scenario would.
+	_, sim, _ := runCLI("simulate", filepath.Join(dir, "bench-m12.yaml"), "--samples", "30000", "--json", "--quiet")
+	res := filepath.Join(t.TempDir(), "bench-m12.json")
+	os.WriteFile(res, []byte(sim), 0o644)
+	code, js2, errs := runCLI("rank", filepath.Join(dir, "cover-flange.yaml"), res, "--samples", "30000", "--target", "1e-2", "--json", "--quiet")
+	if code != 0 {
+		t.Fatalf("rank with a result file: exit %d: %s", code, errs)
+	}
+	var doc2 struct {
+		Joints []struct {
+			Any struct {
+				CIHigh float64 `json:"ci_high"`
+			} `json:"any"`
+			Verdict string `json:"verdict"`
+		} `json:"joints"`
+	}
+	json.Unmarshal([]byte(js2), &doc2)
+	if len(doc2.Joints) != 2 {
+		t.Fatalf("%d joints", len(doc2.Joints))
+	}
+	for i := range doc2.Joints {
+		if doc2.Joints[i].Any.CIHigh != doc.Joints[i].Any.CIHigh || doc2.Joints[i].Verdict != doc.Joints[i].Verdict {
+			t.Errorf("rank %d from a result file differs: %+v vs %+v", i+1, doc2.Joints[i], doc.Joints[i])
+		}
+	}
 }
 
 // TestRankBadInput: refused before anything runs or is written.
@@ -89,6 +116,7 @@ func TestRankBadInput(t *testing.T) {
 	}{
 		{[]string{"rank", filepath.Join("..", "..", "testdata", "examples", "cover-flange.yaml"), "--target", "2"}, 2, "--target 2"},
 		{[]string{"rank", t.TempDir()}, 1, "holds no scenario files"},
+		{[]string{"rank", nominalJSON(t)}, 1, `a "nominal" document`},
 		{[]string{"rank", filepath.Join("..", "..", "testdata", "examples", "cover-flange.yaml"), bad, "--out", out}, 1, "bad.yaml"},
 	} {
 		if code, _, errs := runCLI(tc.args...); code != tc.code || !strings.Contains(errs, tc.msg) {
@@ -129,4 +157,11 @@ func checkIndexInBrowser(t *testing.T, page string, rows int) {
 			t.Errorf("link %s: %v", link, err)
 		}
 	}
+}
+
+func nominalJSON(t *testing.T) string {
+	_, out, _ := runCLI("nominal", "--example", "cover-flange", "--json")
+	p := filepath.Join(t.TempDir(), "nominal.json")
+	os.WriteFile(p, []byte(out), 0o644)
+	return p
 }

@@ -8,9 +8,6 @@ import (
 	"sort"
 	"strconv"
 	"text/tabwriter"
-
-	"boltrisk/montecarlo"
-	"boltrisk/montecarlo/scenario"
 )
 
 // RankDoc is the result of `boltrisk rank --json`: a fleet of joints, each
@@ -66,31 +63,35 @@ func Verdict(lo, hi, target float64) string {
 	return "undecided"
 }
 
-// RankEntry is one simulated joint to rank.
+// RankEntry is one simulated joint to rank: its simulate document (run
+// here, or read from a file written by 'simulate --json', e.g. by one task
+// of a job array) and the path of its review, if any.
 type RankEntry struct {
-	Scenario *scenario.Scenario
-	Result   *montecarlo.Result
-	Doc      SimDoc
-	Report   string
+	Doc    SimDoc
+	Report string
 }
 
 // Rank builds the ranking of simulated joints against a target.
 func Rank(es []RankEntry, target float64, version string) RankDoc {
 	d := RankDoc{SchemaVersion: SchemaVersion, Kind: "rank", ToolVersion: version, Target: target, Joints: []RankRow{}, Verdicts: map[string]int{}, Caution: Caution}
 	for _, e := range es {
-		r := e.Result
-		row := RankRow{Scenario: Info(e.Scenario), Method: r.Method, Samples: r.Samples, Seed: r.Seed,
-			Any: probDoc("any", "any mode", r.Any), Verdict: Verdict(r.Any.Lo, r.Any.Hi, target), Report: e.Report,
-			Partial: r.Partial, Warnings: len(e.Doc.Warnings), GoverningCIHigh: -1}
-		for i := range r.Modes {
-			m := &r.Modes[i]
-			if m.Estimate.Hi > row.GoverningCIHigh {
-				row.Governing, row.GoverningTitle, row.GoverningCIHigh = m.Mode.Key(), m.Mode.Title(), m.Estimate.Hi
+		sd := &e.Doc
+		row := RankRow{Scenario: sd.Scenario, Method: sd.Method, Samples: sd.Samples, Seed: sd.Seed, Report: e.Report,
+			Partial: sd.Partial, Warnings: len(sd.Warnings), GoverningCIHigh: -1}
+		for _, m := range sd.Modes {
+			if m.Key == "any" {
+				row.Any = m
+				row.Any.SFPercentiles, row.Any.PerBolt, row.Any.NominalSF = nil, nil, nil
+				continue
+			}
+			if m.CIHigh > row.GoverningCIHigh {
+				row.Governing, row.GoverningTitle, row.GoverningCIHigh = m.Key, m.Title, m.CIHigh
 			}
 		}
 		if row.GoverningCIHigh < 0 {
 			row.GoverningCIHigh = 0
 		}
+		row.Verdict = Verdict(row.Any.CILow, row.Any.CIHigh, target)
 		d.Joints = append(d.Joints, row)
 		d.Verdicts[row.Verdict]++
 	}
