@@ -46,6 +46,9 @@ type Settings struct {
 	Precision float64
 	// Method selects the estimator of Estimate (Run is always crude).
 	Method Method
+	// FixedSamples makes importance sampling draw exactly Samples (no
+	// precision stop), as the parts of a split run do.
+	FixedSamples bool
 	// Interval selects the interval of each probability (default Auto:
 	// exact below 20 failures, Wilson above, one-sided when none failed).
 	Interval interval.Method

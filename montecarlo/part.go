@@ -2,12 +2,14 @@ package montecarlo
 
 import (
 	"context"
+	"errors"
 	"fmt"
 	"sync"
 	"sync/atomic"
 	"time"
 
 	"boltrisk/model"
+	"boltrisk/montecarlo/rare"
 )
 
 // Parts: a crude run split into N parts that run on their own (one task of
@@ -69,7 +71,11 @@ type PartState struct {
 	// Sketches: the quantities', then each reported mode's (empty without
 	// histograms).
 	Sketches []SketchState
-	Elapsed  time.Duration
+	// Rare holds the sums of each importance-sampling chunk of the block
+	// (Method "importance"; its chunks are rare.ImportanceSettings'
+	// ChunkSize samples, not ChunkSize).
+	Rare    []rare.ChunkSums
+	Elapsed time.Duration
 }
 
 // ValidatePart checks a part index k of n.
@@ -90,7 +96,7 @@ func partSettings(ctx context.Context, k *Kernel, s *Settings) (string, error) {
 		return "", fmt.Errorf("adaptive stopping (precision %g) cannot be split into parts: where it stops depends on every chunk before; give a fixed sample count and no precision", s.Precision)
 	}
 	switch s.Method {
-	case Crude:
+	case Crude, Importance:
 		return "", nil
 	case Auto:
 		if k.Dim() == 0 {
@@ -105,7 +111,7 @@ func partSettings(ctx context.Context, k *Kernel, s *Settings) (string, error) {
 		}
 		return note, nil
 	}
-	return "", fmt.Errorf("method %s cannot be split into parts: only crude Monte Carlo (and auto when it resolves to crude) merges exactly in this version; subset simulation is sequential (each level seeds the next); run it on one machine", s.Method)
+	return "", fmt.Errorf("method %s cannot be split into parts: crude Monte Carlo, importance sampling (a fixed sample count) and auto when it resolves to crude merge exactly; subset simulation is sequential (each level seeds the next); run it on one machine", s.Method)
 }
 
 // RunPart runs part k of n of a crude run of p (chunks PartChunks) and
@@ -128,6 +134,9 @@ func RunPart(ctx context.Context, p *Problem, s Settings, part, n int) (*PartSta
 		return nil, err
 	}
 	start := time.Now()
+	if s.Method == Importance {
+		return runImportancePart(ctx, k, s, part, n, start)
+	}
 	c0, c1 := PartChunks(s.Samples, part, n)
 	st := &PartState{Method: "crude", MethodNote: note, Part: part, Parts: n, FirstChunk: c0, EndChunk: c1,
 		Chunks: make([]ChunkSum, c1-c0)}
@@ -218,6 +227,16 @@ func MergeParts(ctx context.Context, p *Problem, s Settings, parts []*PartState)
 		if byPart[pt.Part] != nil {
 			return nil, fmt.Errorf("part %d of %d given twice", pt.Part, n)
 		}
+		if pt.Method != parts[0].Method {
+			return nil, fmt.Errorf("part %d of %d ran %s, part %d %s", pt.Part, n, pt.Method, parts[0].Part, parts[0].Method)
+		}
+		if pt.Method == "importance" {
+			if byPart[pt.Part] != nil {
+				return nil, fmt.Errorf("part %d of %d given twice", pt.Part, n)
+			}
+			byPart[pt.Part] = pt
+			continue
+		}
 		c0, c1 := PartChunks(s.Samples, pt.Part, n)
 		if pt.FirstChunk != c0 || pt.EndChunk != c1 || int64(len(pt.Chunks)) != c1-c0 {
 			return nil, fmt.Errorf("part %d of %d holds chunks %d … %d (%d sums); the split assigns %d … %d", pt.Part, n, pt.FirstChunk, pt.EndChunk-1, len(pt.Chunks), c0, c1-1)
@@ -230,6 +249,9 @@ func MergeParts(ctx context.Context, p *Problem, s Settings, parts []*PartState)
 			return nil, fmt.Errorf("part %d of %d holds %d sketches; this run keeps %d", pt.Part, n, len(pt.Sketches), want)
 		}
 		byPart[pt.Part] = pt
+	}
+	if parts[0].Method == "importance" {
+		return mergeImportance(ctx, k, s, parts, n)
 	}
 	first := parts[0]
 	res := &Result{Method: "crude", Seed: s.Seed, Workers: s.Workers, Confidence: s.Confidence, Precision: s.Precision,
@@ -323,4 +345,83 @@ func ResolvePart(ctx context.Context, p *Problem, s Settings) (string, error) {
 		return "", err
 	}
 	return partSettings(ctx, k, &s)
+}
+
+// partBlock returns the block [c0, c1) of part k of n among c chunks.
+func partBlock(c int64, k, n int) (int64, int64) {
+	return (int64(k) - 1) * c / int64(n), int64(k) * c / int64(n)
+}
+
+// rarePlan prepares the importance-sampling run of a split: exactly
+// s.Samples samples (see Settings.FixedSamples).
+func rarePlan(k *Kernel, s Settings) (*rare.ImportancePlan, error) {
+	s.FixedSamples = true
+	prec := s.Precision
+	if prec == 0 {
+		prec = DefaultPrecision
+	}
+	if k.Dim() == 0 {
+		return nil, fmt.Errorf("method importance needs uncertain inputs: no input has a distribution (every sample is the nominal joint); use crude")
+	}
+	return rare.PlanImportance(k.RareProblem(), importanceSettings(s, prec))
+}
+
+// runImportancePart runs part k of n of an importance-sampling run of
+// exactly s.Samples samples: the design points and mixture (the same in
+// every part), then the part's block of the sampler's chunks.
+func runImportancePart(ctx context.Context, k *Kernel, s Settings, part, n int, start time.Time) (*PartState, error) {
+	pl, err := rarePlan(k, s)
+	if err != nil {
+		return nil, err
+	}
+	c0, c1 := partBlock(pl.Chunks(), part, n)
+	sums, err := pl.Run(ctx, c0, c1)
+	if err != nil {
+		return nil, fmt.Errorf("%w: part %d of %d not finished (%v); nothing written", ErrInterrupted, part, n, context.Cause(ctx))
+	}
+	st := &PartState{Method: "importance", Part: part, Parts: n, FirstChunk: c0, EndChunk: c1, Rare: sums}
+	for i := range sums {
+		st.Samples += sums[i].Samples - sums[i].Invalid
+		st.Invalid += sums[i].Invalid
+	}
+	st.Elapsed = time.Since(start)
+	return st, nil
+}
+
+// mergeImportance merges the parts of an importance-sampling run: the
+// chunk sums in chunk order, then the results and the crude pass behind
+// the percentiles, as on one machine.
+func mergeImportance(ctx context.Context, k *Kernel, s Settings, parts []*PartState, n int) (*Result, error) {
+	start := time.Now()
+	pl, err := rarePlan(k, s)
+	if err != nil {
+		return nil, err
+	}
+	byPart := make([]*PartState, n+1)
+	for _, pt := range parts {
+		c0, c1 := partBlock(pl.Chunks(), pt.Part, n)
+		if pt.FirstChunk != c0 || pt.EndChunk != c1 || int64(len(pt.Rare)) != c1-c0 {
+			return nil, fmt.Errorf("part %d of %d holds importance chunks %d … %d (%d sums); the split assigns %d … %d", pt.Part, n, pt.FirstChunk, pt.EndChunk-1, len(pt.Rare), c0, c1-1)
+		}
+		byPart[pt.Part] = pt
+	}
+	var chunks []rare.ChunkSums
+	complete := true
+	for K := 1; K <= n; K++ {
+		if byPart[K] == nil {
+			complete = false
+			continue
+		}
+		chunks = append(chunks, byPart[K].Rare...)
+	}
+	rs := pl.Results(chunks, !complete)
+	s.FixedSamples = true
+	res, err := rareResult(ctx, k, s, Importance, rs, start)
+	if err != nil && !errors.Is(err, ErrInterrupted) {
+		return res, err
+	}
+	if res != nil {
+		res.Partial = !complete || res.Partial
+	}
+	return res, err
 }

@@ -115,3 +115,39 @@ func TestPartRefusals(t *testing.T) {
 	}
 	_ = time.Second
 }
+
+// TestImportancePartsMergeExactly: importance sampling of a fixed sample
+// count split into parts and merged equals the run on one machine
+// (Settings.FixedSamples) bit for bit, percentiles included.
+func TestImportancePartsMergeExactly(t *testing.T) {
+	t.Parallel()
+	s, err := scenario.Example("cover-flange")
+	if err != nil {
+		t.Fatal(err)
+	}
+	set := montecarlo.Settings{Samples: 5000, Seed: 3, Workers: 2, Method: montecarlo.Importance, FixedSamples: true}
+	one, err := montecarlo.Estimate(context.Background(), &s.Problem, set)
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, n := range []int{1, 3, 7} {
+		var parts []*montecarlo.PartState
+		for k := 1; k <= n; k++ {
+			ps := set
+			ps.Workers = 1 + k%2
+			p, err := montecarlo.RunPart(context.Background(), &s.Problem, ps, k, n)
+			if err != nil {
+				t.Fatal(err)
+			}
+			parts = append(parts, p)
+		}
+		got, err := montecarlo.MergeParts(context.Background(), &s.Problem, set, parts)
+		if err != nil {
+			t.Fatal(err)
+		}
+		one.Elapsed, got.Elapsed = 0, 0
+		if !reflect.DeepEqual(one, got) {
+			t.Errorf("%d parts: merged importance result differs from one machine: one %+v, got %+v", n, one.Any, got.Any)
+		}
+	}
+}

@@ -348,8 +348,7 @@ func runRare(ctx context.Context, k *Kernel, s Settings, m Method) (*Result, err
 	var err error
 	switch m {
 	case Importance:
-		rs, err = rare.Importance(ctx, p, &rare.ImportanceSettings{Seed: s.Seed, Workers: s.Workers, Precision: prec,
-			MaxSamples: s.Samples, Confidence: s.Confidence})
+		rs, err = rare.Importance(ctx, p, importanceSettings(s, prec))
 	default:
 		rs, err = rare.Subset(ctx, p, &rare.SubsetSettings{Seed: s.Seed, Workers: s.Workers, Precision: prec, Confidence: s.Confidence})
 	}
@@ -359,6 +358,27 @@ func runRare(ctx context.Context, k *Kernel, s Settings, m Method) (*Result, err
 				fmt.Errorf("%w: %v", ErrInterrupted, context.Cause(ctx))
 		}
 		return nil, err
+	}
+	return rareResult(ctx, k, s, m, rs, start)
+}
+
+// importanceSettings are the settings of an importance-sampling run: up
+// to s.Samples samples until the precision is met, or exactly s.Samples
+// with FixedSamples (as the parts of a split run draw).
+func importanceSettings(s Settings, prec float64) *rare.ImportanceSettings {
+	is := &rare.ImportanceSettings{Seed: s.Seed, Workers: s.Workers, Precision: prec, MaxSamples: s.Samples, Confidence: s.Confidence}
+	if s.FixedSamples {
+		is.Samples = s.Samples
+	}
+	return is
+}
+
+// rareResult builds the result of a rare-event run from its per-event
+// results, with the percentiles from a crude pass.
+func rareResult(ctx context.Context, k *Kernel, s Settings, m Method, rs []rare.Result, start time.Time) (*Result, error) {
+	prec := s.Precision
+	if prec == 0 {
+		prec = DefaultPrecision
 	}
 	res := &Result{Method: m.String(), Seed: s.Seed, Workers: s.Workers, Confidence: s.Confidence, Precision: s.Precision,
 		NBolts: k.nBolts, Nominal: k.Nominal(), Rare: &RareInfo{Events: rs}}

@@ -106,7 +106,9 @@ func mergeSweep(ctx context.Context, opts *MergeOptions, ps *report.PartSet, s *
 		return err
 	}
 	set.ProbabilitiesOnly = true
-	set.Method = montecarlo.Crude
+	if set.Method == montecarlo.Auto {
+		set.Method = montecarlo.Crude // resolved before the split
+	}
 	xs := v.Values()
 	if len(states) != len(xs) {
 		return fmt.Errorf("%s holds %d steps; --vary %s with %d steps has %d", ps.Files[0], len(states), ref.Vary.Spec, ref.Vary.Steps, len(xs))

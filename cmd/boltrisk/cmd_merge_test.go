@@ -52,20 +52,23 @@ func TestMergeContract(t *testing.T) {
 	for _, tc := range []struct {
 		n    int
 		args []string
+		one  []string // flags of the one-machine run only
 	}{
-		{1, []string{"simulate", "--example", "cover-flange", "--samples", "60000", "--seed", "5"}},
-		{3, []string{"simulate", "--example", "cover-flange", "--samples", "100000", "--seed", "5"}},
-		{7, []string{"simulate", file, "--samples", "150001", "--seed", "9", "--method", "crude"}},
-		{3, []string{"simulate", "--example", "cover-flange", "--samples", "50000", "--seed", "2", "--method", "auto", "--modes", "fatigue,separation"}},
-		{3, []string{"sweep", "--example", "cover-flange", "--vary", "torque=40..70N*m", "--steps", "4", "--samples", "70000"}},
-		{7, []string{"sweep", file, "--vary", "load=0.5..2", "--steps", "3", "--samples", "120000", "--method", "auto"}},
+		{1, []string{"simulate", "--example", "cover-flange", "--samples", "60000", "--seed", "5"}, nil},
+		{3, []string{"simulate", "--example", "cover-flange", "--samples", "100000", "--seed", "5"}, nil},
+		{7, []string{"simulate", file, "--samples", "150001", "--seed", "9", "--method", "crude"}, nil},
+		{3, []string{"simulate", "--example", "cover-flange", "--samples", "50000", "--seed", "2", "--method", "auto", "--modes", "fatigue,separation"}, nil},
+		{3, []string{"sweep", "--example", "cover-flange", "--vary", "torque=40..70N*m", "--steps", "4", "--samples", "70000"}, nil},
+		{7, []string{"sweep", file, "--vary", "load=0.5..2", "--steps", "3", "--samples", "120000", "--method", "auto"}, nil},
+		{3, []string{"simulate", "--example", "cover-flange", "--samples", "6000", "--seed", "4", "--method", "importance"}, []string{"--fixed-samples"}},
+		{7, []string{"simulate", file, "--samples", "3001", "--method", "importance"}, []string{"--fixed-samples"}},
 	} {
 		t.Run(fmt.Sprintf("%d parts %s", tc.n, tc.args[1]), func(t *testing.T) {
 			if testing.Short() && tc.n != 3 {
 				t.Skip("-short: the 3-part cases only")
 			}
 			dir := t.TempDir()
-			one := append(append([]string{}, tc.args...), "--workers", "2", "--quiet")
+			one := append(append(append([]string{}, tc.args...), tc.one...), "--workers", "2", "--quiet")
 			code, want, errs := runCLI(append(one, "--json")...)
 			if code != 0 {
 				t.Fatalf("one machine: exit %d: %s", code, errs)
@@ -166,7 +169,8 @@ func TestPartBadInput(t *testing.T) {
 		{"part 1/0", append(sim, "--part", "1/0"), 2, "number of parts"},
 		{"precision", append(sim, "--part", "1/2", "--precision", "5%"), 2, "give a fixed --samples"},
 		{"subset", append(sim, "--part", "1/2", "--method", "subset"), 2, "subset simulation is sequential"},
-		{"importance", append(sim, "--part", "1/2", "--method", "importance"), 2, "methods that can be split: crude"},
+		{"importance sweep", []string{"sweep", "--example", "cover-flange", "--vary", "torque=40..70N*m", "--method", "importance", "--part", "1/2", "--part-file", filepath.Join(dir, "never.json")}, 2, "sweep parts run crude"},
+		{"fixed with precision", []string{"simulate", "--example", "cover-flange", "--method", "importance", "--fixed-samples", "--precision", "10%"}, 2, "without --precision"},
 		{"out in a part", append(sim, "--part", "1/2", "--out", filepath.Join(dir, "rev")), 2, "give them to 'boltrisk merge'"},
 		{"sweep target", []string{"sweep", "--example", "cover-flange", "--vary", "torque=40..70N*m", "--target", "1e-3", "--part", "1/2", "--part-file", filepath.Join(dir, "never.json")}, 2, "bisection"},
 		{"sweep max-scatter", []string{"sweep", "--example", "cover-flange", "--max-scatter", "torque", "--target", "1e-3", "--part", "1/2", "--part-file", filepath.Join(dir, "never.json")}, 2, "sequential"},

@@ -61,11 +61,12 @@ func partRefusals(run *runFlags, set montecarlo.Settings, what string) error {
 	}
 	switch set.Method {
 	case montecarlo.Subset:
-		return usagef("--method subset cannot be split into parts: subset simulation is sequential (each level's samples seed the next); methods that can be split: crude, and auto when it resolves to crude; run subset simulation on one machine")
+		return usagef("--method subset cannot be split into parts: subset simulation is sequential (each level's samples seed the next); methods that can be split: crude, importance (exactly --samples samples) and auto when it resolves to crude; run subset simulation on one machine")
 	case montecarlo.Importance:
-		return usagef("--method importance cannot be split into parts in this version: methods that can be split: crude, and auto when it resolves to crude; run importance sampling on one machine (it needs far fewer samples)")
+		if what == "sweep" {
+			return usagef("--method importance cannot be split in a sweep: sweep parts run crude Monte Carlo (--method crude)")
+		}
 	}
-	_ = what
 	return nil
 }
 
@@ -105,6 +106,7 @@ func runSimulatePart(ctx context.Context, opts *SimulateOptions) error {
 		return err
 	}
 	set = set.WithDefaults()
+	set.FixedSamples = set.Method == montecarlo.Importance // the split draws exactly --samples
 	var done func()
 	set.Progress, done = opts.Run.progress(opts.ErrOut, set.Samples/int64(n), fmt.Sprintf("part %d/%d", k, n))
 	st, err := montecarlo.RunPart(ctx, &src.Scenario.Problem, set, k, n)

@@ -84,6 +84,9 @@ func runSimulate(ctx context.Context, opts *SimulateOptions) error {
 	if err != nil {
 		return err
 	}
+	if err := opts.Part.fixed(&opts.Run, &set); err != nil {
+		return err
+	}
 	if opts.LoadCurve != "" && opts.Output.Dir == "" {
 		return usagef("--load-curve draws a picture: give --out DIR too")
 	}

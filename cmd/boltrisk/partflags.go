@@ -16,6 +16,7 @@ type partFlags struct {
 	Spec  string // K/N or auto
 	File  string // --part-file
 	Count int    // --parts, the count for engines that do not give it
+	Fixed bool   // --fixed-samples (simulate)
 }
 
 func (p *partFlags) add(cmd *cobra.Command) {
@@ -23,6 +24,9 @@ func (p *partFlags) add(cmd *cobra.Command) {
 	fl.StringVar(&p.Spec, "part", "", "run only part K of N (K/N, K from 1; or auto: from the job array's environment) and write its part file for 'boltrisk merge'")
 	fl.StringVar(&p.File, "part-file", "", "with --part: the part file to write (default part-K-of-N.json in the working folder)")
 	fl.IntVar(&p.Count, "parts", 0, "with --part auto: the number of parts, for engines whose environment does not give it (Kubernetes, PBS, AWS Batch)")
+	if cmd.Name() == "simulate" {
+		fl.BoolVar(&p.Fixed, "fixed-samples", false, "importance sampling: draw exactly --samples samples, no precision stop (what the parts of a split run draw; the one-machine counterpart of --part)")
+	}
 }
 
 // arrayEngines are the job-array environments --part auto reads, in the
@@ -136,3 +140,15 @@ func (p *partFlags) partFile(k, n int) string {
 }
 
 var osGetenv = os.Getenv
+
+// fixed applies --fixed-samples to the settings of a run on one machine.
+func (p *partFlags) fixed(run *runFlags, set *montecarlo.Settings) error {
+	if !p.Fixed {
+		return nil
+	}
+	if set.Precision > 0 {
+		return usagef("--fixed-samples draws exactly --samples: give it without --precision (and without study.precision)")
+	}
+	set.FixedSamples = true
+	return nil
+}

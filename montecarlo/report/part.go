@@ -19,6 +19,7 @@ import (
 	"boltrisk/model"
 	"boltrisk/montecarlo"
 	"boltrisk/montecarlo/interval"
+	"boltrisk/montecarlo/rare"
 	"boltrisk/montecarlo/scenario"
 )
 
@@ -86,7 +87,7 @@ type PartVary struct {
 
 // PartStep is the exact state of one run of a part.
 type PartStep struct {
-	Method     string `json:"method" jsonschema:"enum=crude"`
+	Method     string `json:"method" jsonschema:"enum=crude,enum=importance"`
 	MethodNote string `json:"method_note,omitempty"`
 	// FirstChunk and EndChunk bound the part's chunks [first, end).
 	FirstChunk  int64 `json:"first_chunk"`
@@ -104,6 +105,32 @@ type PartStep struct {
 	// residual preload, in N (exact decimal of the float64).
 	ChunkSums [][3]float64 `json:"chunk_sums"`
 	Sketches  []PartSketch `json:"sketches"`
+	// ImportanceChunks holds each importance-sampling chunk's sums (method
+	// importance; its chunks are of 128 samples), in chunk order.
+	ImportanceChunks []PartRareChunk `json:"importance_chunks,omitempty"`
+}
+
+// PartRareChunk is one importance-sampling chunk's sums: counts, and per
+// event (the reported modes, then any) the failures and the weight sums
+// W = Σw, W2 = Σw², WMax = max w, WU = Σw·u, W2U = Σw²·u, W2UU = Σw²·u²
+// (per coordinate u of standard-normal space), exact decimals.
+type PartRareChunk struct {
+	Samples     int64           `json:"samples"`
+	Evaluations int64           `json:"evaluations"`
+	Invalid     int64           `json:"invalid"`
+	InvalidW    PartFloat       `json:"invalid_weight"`
+	Events      []PartEventSums `json:"events"`
+}
+
+// PartEventSums is one event's sums of an importance-sampling chunk.
+type PartEventSums struct {
+	Failed int64     `json:"failed"`
+	W      PartFloat `json:"w"`
+	W2     PartFloat `json:"w2"`
+	WMax   PartFloat `json:"w_max"`
+	WU     []float64 `json:"wu"`
+	W2U    []float64 `json:"w2u"`
+	W2UU   []float64 `json:"w2uu"`
 }
 
 // PartSketch is one sketch's bin counts and extremes.
@@ -197,6 +224,13 @@ func partStep(st *montecarlo.PartState) PartStep {
 	for i, c := range st.Chunks {
 		ps.ChunkSums[i] = [3]float64{c.N, c.Sum, c.SSQ}
 	}
+	for _, c := range st.Rare {
+		rc := PartRareChunk{Samples: c.Samples, Evaluations: c.Evaluations, Invalid: c.Invalid, InvalidW: PartFloat(c.InvalidW)}
+		for _, e := range c.Events {
+			rc.Events = append(rc.Events, PartEventSums{Failed: e.Failed, W: PartFloat(e.W), W2: PartFloat(e.W2), WMax: PartFloat(e.WMax), WU: e.WU, W2U: e.W2U, W2UU: e.W2UU})
+		}
+		ps.ImportanceChunks = append(ps.ImportanceChunks, rc)
+	}
 	for _, sk := range st.Sketches {
 		var buf []byte
 		for _, c := range sk.Counts {
@@ -258,8 +292,8 @@ func DecodePart(file string, data []byte) (*PartDoc, error) {
 		return nil, fmt.Errorf("%s: the scenario text does not match its SHA-256 %s", file, d.Scenario.SHA256)
 	}
 	for _, st := range d.Steps {
-		if st.Method != "crude" {
-			return nil, fmt.Errorf("%s: a part of a %s run: only crude Monte Carlo (and auto resolved to it) merges exactly; %s is sequential or adaptive and runs on one machine", file, st.Method, st.Method)
+		if st.Method != "crude" && st.Method != "importance" {
+			return nil, fmt.Errorf("%s: a part of a %s run: only crude Monte Carlo, importance sampling of a fixed sample count (and auto resolved to crude) merge exactly; %s is sequential or adaptive and runs on one machine", file, st.Method, st.Method)
 		}
 	}
 	if d.Parts < 1 || d.Part < 1 || d.Part > d.Parts || len(d.Steps) == 0 {
@@ -324,6 +358,19 @@ func (d *PartDoc) States() ([]*montecarlo.PartState, error) {
 		}
 		for j, c := range ps.ChunkSums {
 			st.Chunks[j] = montecarlo.ChunkSum{N: c[0], Sum: c[1], SSQ: c[2]}
+		}
+		for j, c := range ps.ImportanceChunks {
+			rc := rare.ChunkSums{Samples: c.Samples, Evaluations: c.Evaluations, Invalid: c.Invalid, InvalidW: float64(c.InvalidW)}
+			for _, e := range c.Events {
+				if len(e.W2U) != len(e.WU) || len(e.W2UU) != len(e.WU) || (len(rc.Events) > 0 && len(e.WU) != len(rc.Events[0].WU)) {
+					return nil, fmt.Errorf("step %d, importance chunk %d: sums of unequal length", i+1, j+1)
+				}
+				rc.Events = append(rc.Events, rare.EventSums{Failed: e.Failed, W: float64(e.W), W2: float64(e.W2), WMax: float64(e.WMax), WU: e.WU, W2U: e.W2U, W2UU: e.W2UU})
+			}
+			if j > 0 && len(rc.Events) != len(st.Rare[0].Events) {
+				return nil, fmt.Errorf("step %d, importance chunk %d: %d events, chunk 1 has %d", i+1, j+1, len(rc.Events), len(st.Rare[0].Events))
+			}
+			st.Rare = append(st.Rare, rc)
 		}
 		for j, sk := range ps.Sketches {
 			raw, err := base64.StdEncoding.DecodeString(sk.Counts)
