@@ -144,6 +144,15 @@ func TestPartBadInput(t *testing.T) {
 		}
 		return p
 	}
+	imp := runParts(t, t.TempDir(), 2, "simulate", "--example", "cover-flange", "--samples", "1000", "--method", "importance")
+	ib, _ := os.ReadFile(imp[0])
+	id, err := report.DecodePart(imp[0], ib)
+	if err != nil {
+		t.Fatal(err)
+	}
+	id.Steps[0].ImportanceChunks[0].Dim++
+	ib, _ = report.EncodePart(*id)
+	badSums := write("bad-sums.json", ib)
 	truncated := write("truncated.json", data[:len(data)/2])
 	flipped := write("flipped.json", []byte(strings.Replace(string(data), `"any_failures":`, `"any_failures":1`, 1)))
 	pd, err := report.DecodePart(good[0], data)
@@ -175,6 +184,7 @@ func TestPartBadInput(t *testing.T) {
 		{"sweep target", []string{"sweep", "--example", "cover-flange", "--vary", "torque=40..70N*m", "--target", "1e-3", "--part", "1/2", "--part-file", filepath.Join(dir, "never.json")}, 2, "bisection"},
 		{"sweep max-scatter", []string{"sweep", "--example", "cover-flange", "--max-scatter", "torque", "--target", "1e-3", "--part", "1/2", "--part-file", filepath.Join(dir, "never.json")}, 2, "sequential"},
 		{"truncated", []string{"merge", truncated, good[1]}, 1, "truncated part file"},
+		{"importance sums", []string{"merge", badSums, imp[1]}, 1, "importance chunk 1: the sums are not 6 events ×"},
 		{"changed", []string{"merge", flipped, good[1]}, 1, "checksum mismatch"},
 		{"empty", []string{"merge", empty}, 1, "the file is empty"},
 		{"not a part", []string{"merge", notPart}, 1, "not a part file"},

@@ -110,27 +110,19 @@ type PartStep struct {
 	ImportanceChunks []PartRareChunk `json:"importance_chunks,omitempty"`
 }
 
-// PartRareChunk is one importance-sampling chunk's sums: counts, and per
-// event (the reported modes, then any) the failures and the weight sums
-// W = Σw, W2 = Σw², WMax = max w, WU = Σw·u, W2U = Σw²·u, W2UU = Σw²·u²
-// (per coordinate u of standard-normal space), exact decimals.
+// PartRareChunk is one importance-sampling chunk's sums: counts, the
+// failures of each event (the reported modes, then any), and its floating
+// sums as the bits of float64 values (little-endian, base64): the weight of
+// the samples outside the domain, then per event W = Σw, W2 = Σw²,
+// WMax = max w and, per coordinate u of standard-normal space (Dim of
+// them), WU = Σw·u, W2U = Σw²·u, W2UU = Σw²·u².
 type PartRareChunk struct {
-	Samples     int64           `json:"samples"`
-	Evaluations int64           `json:"evaluations"`
-	Invalid     int64           `json:"invalid"`
-	InvalidW    PartFloat       `json:"invalid_weight"`
-	Events      []PartEventSums `json:"events"`
-}
-
-// PartEventSums is one event's sums of an importance-sampling chunk.
-type PartEventSums struct {
-	Failed int64     `json:"failed"`
-	W      PartFloat `json:"w"`
-	W2     PartFloat `json:"w2"`
-	WMax   PartFloat `json:"w_max"`
-	WU     []float64 `json:"wu"`
-	W2U    []float64 `json:"w2u"`
-	W2UU   []float64 `json:"w2uu"`
+	Samples     int64   `json:"samples"`
+	Evaluations int64   `json:"evaluations"`
+	Invalid     int64   `json:"invalid"`
+	Failed      []int64 `json:"failed"`
+	Dim         int     `json:"dim"`
+	Sums        string  `json:"sums"`
 }
 
 // PartSketch is one sketch's bin counts and extremes.
@@ -225,10 +217,21 @@ func partStep(st *montecarlo.PartState) PartStep {
 		ps.ChunkSums[i] = [3]float64{c.N, c.Sum, c.SSQ}
 	}
 	for _, c := range st.Rare {
-		rc := PartRareChunk{Samples: c.Samples, Evaluations: c.Evaluations, Invalid: c.Invalid, InvalidW: PartFloat(c.InvalidW)}
+		rc := PartRareChunk{Samples: c.Samples, Evaluations: c.Evaluations, Invalid: c.Invalid, Failed: []int64{}}
+		buf := binary.LittleEndian.AppendUint64(nil, math.Float64bits(c.InvalidW))
 		for _, e := range c.Events {
-			rc.Events = append(rc.Events, PartEventSums{Failed: e.Failed, W: PartFloat(e.W), W2: PartFloat(e.W2), WMax: PartFloat(e.WMax), WU: e.WU, W2U: e.W2U, W2UU: e.W2UU})
+			rc.Failed = append(rc.Failed, e.Failed)
+			rc.Dim = len(e.WU)
+			for _, x := range [3]float64{e.W, e.W2, e.WMax} {
+				buf = binary.LittleEndian.AppendUint64(buf, math.Float64bits(x))
+			}
+			for _, v := range [3][]float64{e.WU, e.W2U, e.W2UU} {
+				for _, x := range v {
+					buf = binary.LittleEndian.AppendUint64(buf, math.Float64bits(x))
+				}
+			}
 		}
+		rc.Sums = base64.StdEncoding.EncodeToString(buf)
 		ps.ImportanceChunks = append(ps.ImportanceChunks, rc)
 	}
 	for _, sk := range st.Sketches {
@@ -360,15 +363,31 @@ func (d *PartDoc) States() ([]*montecarlo.PartState, error) {
 			st.Chunks[j] = montecarlo.ChunkSum{N: c[0], Sum: c[1], SSQ: c[2]}
 		}
 		for j, c := range ps.ImportanceChunks {
-			rc := rare.ChunkSums{Samples: c.Samples, Evaluations: c.Evaluations, Invalid: c.Invalid, InvalidW: float64(c.InvalidW)}
-			for _, e := range c.Events {
-				if len(e.W2U) != len(e.WU) || len(e.W2UU) != len(e.WU) || (len(rc.Events) > 0 && len(e.WU) != len(rc.Events[0].WU)) {
-					return nil, fmt.Errorf("step %d, importance chunk %d: sums of unequal length", i+1, j+1)
-				}
-				rc.Events = append(rc.Events, rare.EventSums{Failed: e.Failed, W: float64(e.W), W2: float64(e.W2), WMax: float64(e.WMax), WU: e.WU, W2U: e.W2U, W2UU: e.W2UU})
+			raw, err := base64.StdEncoding.DecodeString(c.Sums)
+			ne := len(c.Failed)
+			if err != nil || c.Dim < 0 || len(raw) != 8*(1+ne*(3+3*c.Dim)) {
+				return nil, fmt.Errorf("step %d, importance chunk %d: the sums are not %d events × %d coordinates", i+1, j+1, ne, c.Dim)
 			}
-			if j > 0 && len(rc.Events) != len(st.Rare[0].Events) {
-				return nil, fmt.Errorf("step %d, importance chunk %d: %d events, chunk 1 has %d", i+1, j+1, len(rc.Events), len(st.Rare[0].Events))
+			next := func() float64 {
+				x := math.Float64frombits(binary.LittleEndian.Uint64(raw))
+				raw = raw[8:]
+				return x
+			}
+			vec := func() []float64 {
+				v := make([]float64, c.Dim)
+				for k := range v {
+					v[k] = next()
+				}
+				return v
+			}
+			rc := rare.ChunkSums{Samples: c.Samples, Evaluations: c.Evaluations, Invalid: c.Invalid, InvalidW: next()}
+			for _, f := range c.Failed {
+				e := rare.EventSums{Failed: f, W: next(), W2: next(), WMax: next()}
+				e.WU, e.W2U, e.W2UU = vec(), vec(), vec()
+				rc.Events = append(rc.Events, e)
+			}
+			if j > 0 && (len(rc.Events) != len(st.Rare[0].Events) || c.Dim != len(st.Rare[0].Events[0].WU)) {
+				return nil, fmt.Errorf("step %d, importance chunk %d: %d events × %d coordinates, chunk 1 differs", i+1, j+1, ne, c.Dim)
 			}
 			st.Rare = append(st.Rare, rc)
 		}
