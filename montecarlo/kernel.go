@@ -41,9 +41,10 @@ type Kernel struct {
 	stiffVaries bool
 	// jointLevel: the joint-level (shear-side) modes must be evaluated.
 	jointLevel bool
-	modes      []model.Mode // reported modes, report order
-	boltModes  []model.Mode // the reported modes decided bolt by bolt
-	jointModes []model.Mode // the reported joint-level modes
+	modes      []model.Mode  // reported modes, report order
+	boltModes  []model.Mode  // the reported modes decided bolt by bolt
+	boltSet    model.ModeSet // the same as a set
+	jointModes []model.Mode  // the reported joint-level modes
 	set        model.ModeSet
 	nominal    model.Nominal
 }
@@ -91,6 +92,7 @@ func NewKernel(p *Problem, modes []model.Mode) (*Kernel, error) {
 	for _, m := range modes {
 		if m.IsBolt() {
 			k.boltModes = append(k.boltModes, m)
+			k.boltSet |= 1 << m
 		} else {
 			k.jointModes = append(k.jointModes, m)
 		}
@@ -413,12 +415,7 @@ func (e *Evaluator) Eval(rows []float64, n int, o *Out, want Want) {
 			br := &bolts[b]
 			model.EvaluateBolt(&e.in, &e.stiff, k.set, br)
 			invalid = invalid || br.Invalid
-			var f model.ModeSet
-			for _, m := range k.boltModes {
-				if br.Active[m] && model.Failed(br.Capacity[m], br.Demand[m]) {
-					f |= 1 << m
-				}
-			}
+			f := br.Failures(k.boltSet)
 			fail |= f
 			if nb > 1 {
 				o.BoltFail[j*nb+b] = f
@@ -450,18 +447,12 @@ func (e *Evaluator) Eval(rows []float64, n int, o *Out, want Want) {
 func (e *Evaluator) evalOne(rows []float64, n int, o *Out) {
 	k := e.k
 	d := k.Dim()
-	ptrs, br, modes := e.allPtr[:d], &e.bolts[0], k.boltModes
+	ptrs, br, set := e.allPtr[:d], &e.bolts[0], k.boltSet
 	inv, fail, pre := o.Invalid[:n], o.Fail[:n], o.Preload[:n]
 	for j := range n {
 		setRow(ptrs, rows[j*d:j*d+d])
 		model.EvaluateBolt(&e.in, &e.stiff, k.set, br)
-		var f model.ModeSet
-		for _, m := range modes {
-			if br.Active[m] && model.Failed(br.Capacity[m], br.Demand[m]) {
-				f |= 1 << m
-			}
-		}
-		inv[j], fail[j], pre[j] = br.Invalid, f, br.Preload
+		inv[j], fail[j], pre[j] = br.Invalid, br.Failures(set), br.Preload
 	}
 }
 
