@@ -46,6 +46,9 @@ type Settings struct {
 	Precision float64
 	// Method selects the estimator of Estimate (Run is always crude).
 	Method Method
+	// Repeats is the number of independent subset-simulation runs per
+	// round, whose spread gives its c.o.v. (0: rare.DefaultRuns, 20).
+	Repeats int
 	// Interval selects the interval of each probability (default Auto:
 	// exact below 20 failures, Wilson above, one-sided when none failed).
 	Interval interval.Method
@@ -75,6 +78,9 @@ func (s *Settings) Validate() error {
 	}
 	if s.Workers < 0 || s.Workers > 1024 {
 		return fmt.Errorf("workers must lie within 1 … 1024 (0 for all cores), got %d", s.Workers)
+	}
+	if s.Repeats != 0 && (s.Repeats < 2 || s.Repeats > 10000) {
+		return fmt.Errorf("repeats (independent subset-simulation runs) must lie within 2 … 10000, got %d", s.Repeats)
 	}
 	return nil
 }

@@ -64,7 +64,7 @@ func probTable(modes []ProbDoc) *Table {
 		if p.NominalSF != nil {
 			sf = fmtSF(*p.NominalSF)
 		}
-		t.Rows = append(t.Rows, []string{p.Title, FormatProb(p), formatCOV(p), formatInterval(p), fmt.Sprintf("%d / %d", p.Failures, p.Samples), sf})
+		t.Rows = append(t.Rows, []string{p.Title, FormatProb(p), formatCOV(p), formatInterval(p), countsCell(p), sf})
 	}
 	return t
 }

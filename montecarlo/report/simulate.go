@@ -296,6 +296,15 @@ func formatInterval(p ProbDoc) string {
 	return fmt.Sprintf("[%.2e, %.2e]", p.CILow, p.CIHigh)
 }
 
+// countsCell is the "failures / samples" cell of a mode; "—" when the
+// estimate is no count (subset simulation: a product of level shares).
+func countsCell(p ProbDoc) string {
+	if p.Samples == 0 {
+		return "—"
+	}
+	return fmt.Sprintf("%d / %d", p.Failures, p.Samples)
+}
+
 func formatCOV(p ProbDoc) string {
 	if p.COV == nil {
 		return "-"
@@ -362,7 +371,7 @@ func WriteSimulation(w io.Writer, s *scenario.Scenario, doc SimDoc, sys units.Sy
 		if p.NominalSF != nil {
 			sf = fmtSF(*p.NominalSF)
 		}
-		fmt.Fprintf(tw, "  %s\t%s\t%s\t%s\t%d / %d\t%s\t\n", p.Title, FormatProb(p), formatCOV(p), formatInterval(p), p.Failures, p.Samples, sf)
+		fmt.Fprintf(tw, "  %s\t%s\t%s\t%s\t%s\t%s\t\n", p.Title, FormatProb(p), formatCOV(p), formatInterval(p), countsCell(p), sf)
 	}
 	tw.Flush()
 	perBolt := false
