@@ -314,3 +314,20 @@ func unwrapPathError(err error) error {
 	}
 	return err
 }
+
+// dataSchema is the JSON Schema of a data input (one for every dimension:
+// the unit is checked by the loader).
+func dataSchema() map[string]any {
+	p := map[string]any{
+		"data":       map[string]any{"type": "string", "description": "CSV file with a header row, relative to the scenario file (to the working folder for standard input)"},
+		"column":     map[string]any{"type": "string", "description": "header of the column to fit"},
+		"unit":       map[string]any{"type": "string", "description": "unit of bare numbers in the column, e.g. kN"},
+		"family":     map[string]any{"type": "string", "enum": dataFamilies, "description": "family to fit (default: the smallest AIC of normal, lognormal and Weibull)"},
+		"predictive": map[string]any{"type": "boolean", "description": "sample the posterior predictive (Student t, log-t for lognormal) instead of the plug-in fit; normal and lognormal only"},
+		"shared":     map[string]any{"$ref": "#/$defs/fraction", "description": "share of a per-bolt input's scatter common to all bolts"},
+		"lower":      map[string]any{"type": []string{"number", "string"}, "description": "lower bound of a truncnormal fit"},
+		"upper":      map[string]any{"type": []string{"number", "string"}, "description": "upper bound of a truncnormal fit"},
+	}
+	return map[string]any{"type": "object", "additionalProperties": false, "required": []string{"data", "column"},
+		"description": "test data fitted at load time", "properties": p}
+}

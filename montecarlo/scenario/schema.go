@@ -162,7 +162,7 @@ func Schema() map[string]any {
 			}
 			dp[k] = map[string]any{"type": []string{"number", "string"}}
 		}
-		defs["value_"+name] = map[string]any{"oneOf": []any{map[string]any{"$ref": "#/$defs/quantity_" + name}, dist}}
+		defs["value_"+name] = map[string]any{"oneOf": []any{map[string]any{"$ref": "#/$defs/quantity_" + name}, dist, dataSchema()}}
 	}
 	return map[string]any{
 		"$schema":              "https://json-schema.org/draft/2020-12/schema",
