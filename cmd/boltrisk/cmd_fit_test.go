@@ -1,12 +1,16 @@
 package main
 
 import (
+	"crypto/sha256"
+	"encoding/hex"
 	"encoding/json"
 	"os"
 	"path/filepath"
 	"strconv"
 	"strings"
 	"testing"
+
+	"go.yaml.in/yaml/v3"
 )
 
 var lzFile = filepath.Join("..", "..", "testdata", "fit", "lieblein-zelen.csv")
@@ -169,3 +173,51 @@ func TestFitMillionRows(t *testing.T) {
 func formatKN(v float64) string { return fmtFloat(v) }
 
 func fmtFloat(v float64) string { return strconv.FormatFloat(v, 'f', 4, 64) }
+
+// End to end: a scenario whose nut factor is fitted to test data at load
+// time simulates; the JSON document (valid against its schema) and the
+// review carry the data file's SHA-256 and the fit; predictive: true
+// samples a log-t.
+func TestScenarioWithDataSimulates(t *testing.T) {
+	scen := filepath.Join("..", "..", "testdata", "fit", "flange-fitted.yaml")
+	raw, _ := os.ReadFile(filepath.Join("..", "..", "testdata", "fit", "torque-tension-demo.csv"))
+	sum := sha256.Sum256(raw)
+	sha := hex.EncodeToString(sum[:])
+	dir := filepath.Join(t.TempDir(), "review")
+	code, out, errs := runCLI("simulate", scen, "--samples", "20000", "--seed", "3", "--json", "--quiet", "--out", dir)
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errs)
+	}
+	validate(t, compile(t, "simulate"), "simulate JSON with a data input", []byte(out))
+	for _, want := range []string{sha, `"family": "log-t"`, `"predictive": true`, `"column": "K"`} {
+		if !strings.Contains(out, want) {
+			t.Errorf("JSON lacks %q", want)
+		}
+	}
+	md, _ := os.ReadFile(filepath.Join(dir, "report.md"))
+	for _, want := range []string{"data torque-tension-demo.csv", sha, "Fitted to test data", "posterior predictive"} {
+		if !strings.Contains(string(md), want) {
+			t.Errorf("report.md lacks %q", want)
+		}
+	}
+	// From standard input the data path is relative to the working folder:
+	// here cmd/boltrisk, where the file is not.
+	src, _ := os.ReadFile(scen)
+	code, _, errs = runInWith(string(src), "nominal", "-")
+	if code != exitError || !strings.Contains(errs, "relative to the working folder") {
+		t.Errorf("standard input: exit %d: %s", code, errs)
+	}
+	// The scenario validates against the scenario schema.
+	var v any
+	if err := yaml.Unmarshal(src, &v); err != nil {
+		t.Fatal(err)
+	}
+	b, _ := json.Marshal(v)
+	validate(t, compile(t, "scenario"), "flange-fitted.yaml", b)
+}
+
+func runInWith(stdin string, args ...string) (int, string, string) {
+	var out, errb strings.Builder
+	code := runIn(strings.NewReader(stdin), args, &out, &errb)
+	return code, out.String(), errb.String()
+}
