@@ -60,6 +60,7 @@ type Dist struct {
 	//   StudentT: A = location, B = scale, C = d.o.f.; LogT: the same of ln X
 	A, B, C, D float64
 	pLo, pHi   float64 // TruncNormal: Φ at the bounds
+	tab        *tTable // StudentT, LogT: the map from a standard normal (dist_t.go)
 }
 
 func finite(vs ...float64) bool {
@@ -165,7 +166,9 @@ func NewTruncNormal(mean, sd, lo, hi float64) (Dist, error) {
 
 // NeedsNormal reports whether samples are drawn from a standard normal
 // variate (true) or from a uniform one (false).
-func (d *Dist) NeedsNormal() bool { return d.Kind == Normal || d.Kind == LogNormal }
+func (d *Dist) NeedsNormal() bool {
+	return d.Kind == Normal || d.Kind == LogNormal || d.Kind == StudentT || d.Kind == LogT
+}
 
 // FromNormal maps a standard normal variate z to a sample.
 // Valid for Normal and LogNormal; others go through Φ(z).
