@@ -11,6 +11,8 @@ import (
 	"testing"
 
 	"go.yaml.in/yaml/v3"
+
+	"boltrisk/montecarlo/report"
 )
 
 var lzFile = filepath.Join("..", "..", "testdata", "fit", "lieblein-zelen.csv")
@@ -220,4 +222,11 @@ func runInWith(stdin string, args ...string) (int, string, string) {
 	var out, errb strings.Builder
 	code := runIn(strings.NewReader(stdin), args, &out, &errb)
 	return code, out.String(), errb.String()
+}
+
+func TestFitHelp(t *testing.T) {
+	code, out, _ := runCLI("fit", "--help")
+	if code != 0 || !strings.Contains(out, report.Caution[:40]) || !strings.Contains(out, "parametric bootstrap") || !strings.Contains(out, "predictive") {
+		t.Errorf("fit --help: exit %d\n%s", code, out)
+	}
 }
