@@ -105,7 +105,10 @@ func TestSchemaCoversDataKeys(t *testing.T) {
 	t.Parallel()
 	defs := Schema()["$defs"].(map[string]any)
 	v := defs["value_force"].(map[string]any)["oneOf"].([]any)
-	props := v[len(v)-1].(map[string]any)["properties"].(map[string]any)
+	if ref := v[len(v)-1].(map[string]any)["$ref"]; ref != "#/$defs/data_input" {
+		t.Errorf("value_force does not offer a data input: %v", ref)
+	}
+	props := defs["data_input"].(map[string]any)["properties"].(map[string]any)
 	for _, k := range dataKeys {
 		if props[k] == nil {
 			t.Errorf("scenario schema lacks the data key %s", k)
