@@ -134,6 +134,7 @@ the torque, tolerance and lubrication that make it safe.
 		newCatalogCmd(stdout),
 		newExampleCmd(stdout),
 		newSchemaCmd(stdout),
+		newFitCmd(stdout, stderr, nil),
 	)
 	return root
 }

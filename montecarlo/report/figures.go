@@ -50,6 +50,7 @@ func (p Provenance) rows() [][2]string {
 		}
 		seen[name+s.SHA256] = true
 		rows = append(rows, [2]string{"input " + name, "SHA-256 " + s.SHA256})
+		rows = append(rows, dataRows(s, seen)...) // fitdata.go
 	}
 	return rows
 }

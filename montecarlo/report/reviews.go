@@ -13,7 +13,7 @@ func inputsSection(s *scenario.Scenario, j JointDoc, sys units.System) Section {
 	for _, r := range Inputs(s, sys) {
 		t.Rows = append(t.Rows, []string{r.Label, r.Display, r.Source})
 	}
-	sec := Section{Heading: "Inputs", Table: t, Paragraphs: jointLines(j, sys)}
+	sec := Section{Heading: "Inputs", Table: t, Paragraphs: append(jointLines(j, sys), dataParagraphs(s, sys)...)}
 	if s.Description != "" {
 		sec.Paragraphs = append([]string{s.Description}, sec.Paragraphs...)
 	}

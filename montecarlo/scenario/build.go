@@ -111,7 +111,7 @@ func (b *builder) registry() error {
 				continue
 			}
 		}
-		v, d, shared, err := b.p.value(b.r, f)
+		v, d, shared, err := b.value(f) // data.go
 		if err != nil {
 			if lim, ok := fieldLimits[f.path]; ok {
 				var e *Error

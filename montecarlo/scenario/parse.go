@@ -100,6 +100,8 @@ func knownPath(path string) bool {
 
 type parser struct {
 	file string
+	dir  string                 // folder of data files given by relative paths
+	fits map[string]*DataSource // data inputs fitted so far (variants share them)
 }
 
 func (p *parser) errf(line int, field, value, format string, args ...any) *Error {
