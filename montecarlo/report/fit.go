@@ -51,9 +51,12 @@ type FitDoc struct {
 	Seed       uint64  `json:"seed"`
 	Method     string  `json:"method"` // how the p-values and intervals were obtained
 	// Candidates ranked by AIC, best first.
-	Candidates  []FitCandidateDoc `json:"candidates"`
-	Best        string            `json:"best"`
-	Predictives []PredictiveDoc   `json:"predictives,omitempty"`
+	Candidates []FitCandidateDoc `json:"candidates"`
+	Best       string            `json:"best"` // smallest AIC
+	// Recommended is the family of Snippet and DataSnippet: the smallest
+	// AIC among the open-tailed families (normal, lognormal, Weibull).
+	Recommended string          `json:"recommended"`
+	Predictives []PredictiveDoc `json:"predictives,omitempty"`
 	// Snippet is the best fit as a scenario input; DataSnippet refers a
 	// scenario to the data file instead (fitted when it loads).
 	Snippet     string   `json:"snippet"`
@@ -163,16 +166,24 @@ func yamlWord(s string) string {
 	return s
 }
 
+// choice says which family the snippets use and why.
+func (d FitDoc) choice() string {
+	if d.Recommended == d.Best || d.Recommended == "" {
+		return "best by AIC: " + d.Best
+	}
+	return fmt.Sprintf("%s, best by AIC of the open-tailed families; %s ranks first but ends at its fitted bounds, which would cut off the tails that small probabilities depend on", d.Recommended, d.Best)
+}
+
 // Fit builds the document of a fit.
 func Fit(a FitAnalysis, version string) FitDoc {
 	c, r := a.Column, a.Result
 	doc := FitDoc{Envelope: envelope("fit", version), File: c.File, SHA256: a.SHA256, Column: c.Name, Dimension: c.Dim.Key(),
 		Unit: internalUnit(c.Dim), DisplayUnit: c.Unit, N: r.N, Rows: c.Rows, BlankRows: c.Blank,
 		SampleMean: r.Mean, SampleSD: r.SD, Min: r.Min, Max: r.Max, Confidence: r.Confidence, Bootstrap: r.Bootstrap, Seed: r.Seed,
-		Method: r.Method, Best: r.Best().Family.String(), Snippet: fit.Snippet(r.Best().Dist, c.Quantity),
+		Method: r.Method, Best: r.Best().Family.String(), Recommended: r.Recommended().Family.String(), Snippet: fit.Snippet(r.Recommended().Dist, c.Quantity),
 		Warnings: append([]string{}, r.Warnings...), Notes: append(append([]string{}, c.Notes...), r.Notes...), Caution: FitCaution}
 	doc.q = c.Quantity
-	doc.DataSnippet = dataSnippet(c.File, c.Name, c.Unit, r.Best().Family, false)
+	doc.DataSnippet = dataSnippet(c.File, c.Name, c.Unit, r.Recommended().Family, false)
 	for _, cand := range r.Candidates {
 		cd := FitCandidateDoc{Family: cand.Family.String(), Mean: paramDoc(cand.Mean), K: cand.K, LogLik: cand.LogLik, AIC: cand.AIC, BIC: cand.BIC,
 			DeltaAIC: cand.DeltaAIC, DeltaBIC: cand.DeltaBIC, Weight: cand.Weight, RankBIC: cand.RankBIC, AD: testDoc(cand.AD), KS: testDoc(cand.KS),
@@ -287,7 +298,7 @@ func WriteFit(w io.Writer, d FitDoc) {
 		}
 		writeColumns(w, rows)
 	}
-	fmt.Fprintf(w, "\nScenario input (best by AIC: %s), to paste:\n  %s\n", d.Best, d.Snippet)
+	fmt.Fprintf(w, "\nScenario input (%s), to paste:\n  %s\n", d.choice(), d.Snippet)
 	fmt.Fprintf(w, "or refer to the data, fitted when the scenario loads (path relative to the scenario file):\n  %s\n", d.DataSnippet)
 	for _, p := range d.Predictives {
 		fmt.Fprintf(w, "  %s\n", p.DataSnippet)
@@ -350,7 +361,7 @@ func FitFigures(a FitAnalysis) ([]Figure, error) {
 func FitReview(d FitDoc, figs []Figure, prov [][2]string) *Review {
 	r := &Review{Title: fmt.Sprintf("Fit of test data: %s, column %s", d.File, d.Column), Caution: d.Caution, Figures: figs,
 		Provenance: append(prov, [2]string{"data " + d.File, "SHA-256 " + d.SHA256})}
-	r.Subtitle = fmt.Sprintf("%d values; best by AIC: %s.", d.N, d.Best)
+	r.Subtitle = fmt.Sprintf("%d values; %s.", d.N, d.choice())
 	q := d.quantity()
 	t := &Table{Header: []string{"family", "ΔAIC", "weight", "BIC rank", "A² (p)", "D (p)", "mean", "c.o.v."}}
 	for _, c := range d.Candidates {
@@ -370,7 +381,7 @@ func FitReview(d FitDoc, figs []Figure, prov [][2]string) *Review {
 	if len(para) > 0 {
 		r.Sections = append(r.Sections, Section{Heading: "Posterior predictive", Paragraphs: para})
 	}
-	snip := []string{"Best fit: `" + d.Snippet + "`", "Or the data itself: `" + d.DataSnippet + "`"}
+	snip := []string{"Recommended fit (" + d.choice() + "): `" + d.Snippet + "`", "Or the data itself: `" + d.DataSnippet + "`"}
 	for _, p := range d.Predictives {
 		snip = append(snip, "With the predictive: `"+p.DataSnippet+"`")
 	}
