@@ -82,6 +82,9 @@ func CurvePlot(s CurveSpec) (*plot.Plot, [][]Point, error) {
 		p.Add(band)
 		p.Legend.Add("window meeting the target", band)
 	}
+	// Any mode is drawn first, under the modes it sums, so that a mode
+	// that makes up all of it stays visible on top of it.
+	layers := make([][]plot.Plotter, len(s.Curves))
 	for ci, c := range s.Curves {
 		st := styleOf(c.Key, ci)
 		col := st.Color
@@ -113,7 +116,7 @@ func CurvePlot(s CurveSpec) (*plot.Plot, [][]Point, error) {
 			}
 			band.Color = withAlpha(col, 45)
 			band.LineStyle.Width = 0
-			p.Add(band)
+			layers[ci] = append(layers[ci], band)
 		}
 		if len(line) > 0 {
 			l, sc, err := plotter.NewLinePoints(line)
@@ -125,7 +128,7 @@ func CurvePlot(s CurveSpec) (*plot.Plot, [][]Point, error) {
 			if c.Key == AnyMode {
 				l.Width = vg.Points(2.5)
 			}
-			p.Add(l, sc)
+			layers[ci] = append(layers[ci], l, sc)
 			thumbs = append(thumbs, l, sc)
 		}
 		if len(ups) > 0 {
@@ -134,7 +137,7 @@ func CurvePlot(s CurveSpec) (*plot.Plot, [][]Point, error) {
 				return nil, nil, err
 			}
 			sc.Color, sc.Shape, sc.Radius = col, downTriangle{}, vg.Points(4)
-			p.Add(sc)
+			layers[ci] = append(layers[ci], sc)
 			if len(thumbs) == 0 {
 				thumbs = append(thumbs, sc)
 			}
@@ -144,6 +147,13 @@ func CurvePlot(s CurveSpec) (*plot.Plot, [][]Point, error) {
 			name += " (no failures: upper bounds)"
 		}
 		p.Legend.Add(name, thumbs...)
+	}
+	for _, under := range []bool{true, false} {
+		for ci, c := range s.Curves {
+			if (c.Key == AnyMode) == under {
+				p.Add(layers[ci]...)
+			}
+		}
 	}
 	if s.Target > 0 {
 		l, err := plotter.NewLine(plotter.XYs{{X: xmin, Y: s.Target}, {X: xmax, Y: s.Target}})

@@ -3,6 +3,7 @@ package plots
 import (
 	"fmt"
 	"math"
+	"strconv"
 
 	"gonum.org/v1/plot"
 	"gonum.org/v1/plot/plotter"
@@ -166,6 +167,26 @@ func ExceedancePlot(s ExceedanceSpec) (*plot.Plot, []ExceedancePoint, error) {
 		p.Legend.Add(n)
 	}
 	p.X.Min, p.X.Max = xmin, xmax
+	p.X.Tick.Marker = withTick{plainTicks{}, s.FailureAt}
 	p.Y.Min, p.Y.Max = floor, 1
 	return p, drawn, nil
+}
+
+// withTick adds a labelled tick at At (the failure line) to a ticker's.
+type withTick struct {
+	plot.Ticker
+	At float64
+}
+
+func (w withTick) Ticks(lo, hi float64) []plot.Tick {
+	ts := w.Ticker.Ticks(lo, hi)
+	if w.At < lo || w.At > hi {
+		return ts
+	}
+	for _, t := range ts {
+		if t.Label != "" && math.Abs(t.Value-w.At) < 1e-9*math.Max(1, math.Abs(w.At)) {
+			return ts
+		}
+	}
+	return append(ts, plot.Tick{Value: w.At, Label: strconv.FormatFloat(w.At, 'g', -1, 64)})
 }

@@ -2,6 +2,7 @@ package plots
 
 import (
 	"fmt"
+	"image/color"
 	"math"
 
 	"gonum.org/v1/plot"
@@ -94,7 +95,7 @@ func HistogramPlot(s HistSpec) (*plot.Plot, []plotter.HistogramBin, error) {
 		p.Legend.Add("no sample fell inside the plotted range")
 		return p, bars, nil
 	}
-	fill, edge := withAlpha(Palette[cSky], 160), Palette[cBlue]
+	fill, edge := color.NRGBA{R: 190, G: 190, B: 190, A: 255}, Palette[cGrey] // neutral: not a mode's colour
 	if s.Key != "" {
 		c := ModeStyle(s.Key).Color
 		fill, edge = withAlpha(c, 90), c
