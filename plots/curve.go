@@ -289,29 +289,49 @@ func GroupPlot(title string, variants []string, groups []Group) (*plot.Plot, err
 	return p, nil
 }
 
-// probTicks labels a log probability axis by decades ("1e-04", …, "1") and
-// leaves the headroom above 1, kept for the legend, unlabelled.
+// probTicks labels a log probability axis by decades ("1e-4", …, "0.01",
+// "1"), every k-th decade when the axis spans more than ten, at 1, 2 and 5
+// of each decade when it spans at most three; unlabelled ticks at 2 … 9
+// times each decade while it spans at most eight; nothing above 1.
 type probTicks struct{}
 
 func (probTicks) Ticks(lo, hi float64) []plot.Tick {
+	if !(lo > 0) || !(hi > lo) {
+		return nil
+	}
+	hi = math.Min(hi, 1)
+	e0, e1 := int(math.Floor(math.Log10(lo)+1e-9)), int(math.Ceil(math.Log10(hi)-1e-9))
+	k := max(1, (e1-e0+9)/10)
 	var out []plot.Tick
-	for _, t := range (plot.LogTicks{}).Ticks(lo, hi) {
-		if t.Value > 1*(1+1e-9) {
+	for e := e0; e <= e1; e++ {
+		dec := math.Pow(10, float64(e))
+		if dec >= lo*(1-1e-9) && dec <= hi*(1+1e-9) {
+			t := plot.Tick{Value: dec}
+			if e%k == 0 {
+				t.Label = probLabel(1, e)
+			}
+			out = append(out, t)
+		}
+		if e1-e0 > 8 {
 			continue
 		}
-		if t.Label != "" {
-			e := math.Round(math.Log10(t.Value))
-			t.Value = math.Pow(10, e)
-			switch {
-			case e == 0:
-				t.Label = "1"
-			case e >= -3:
-				t.Label = strconv.FormatFloat(t.Value, 'f', -1, 64)
-			default:
-				t.Label = fmt.Sprintf("1e%d", int(e))
+		for m := 2; m < 10; m++ {
+			if v := float64(m) * dec; v >= lo && v <= hi {
+				t := plot.Tick{Value: v}
+				if e1-e0 <= 3 && (m == 2 || m == 5) { // a short axis: 1, 2, 5 of each decade
+					t.Label = probLabel(m, e)
+				}
+				out = append(out, t)
 			}
 		}
-		out = append(out, t)
 	}
 	return out
+}
+
+// probLabel writes m·10^e: "0.02", "1", "5e-5".
+func probLabel(m, e int) string {
+	if e >= -3 {
+		return strconv.FormatFloat(float64(m)*math.Pow(10, float64(e)), 'f', -1, 64)
+	}
+	return fmt.Sprintf("%de%d", m, e)
 }

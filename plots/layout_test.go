@@ -146,3 +146,24 @@ func TestExceedancePlot(t *testing.T) {
 	}
 	checkPNG(t, empty)
 }
+
+func TestProbTicks(t *testing.T) {
+	t.Parallel()
+	for _, c := range []struct {
+		lo, hi   float64
+		min, max int
+	}{{1e-6, 0.04, 5, 6}, {1e-8, 1, 9, 9}, {1e-25, 1, 5, 10}, {3e-3, 0.5, 5, 7}, {2e-5, 1e-3, 5, 7}} {
+		var labels []string
+		for _, tk := range (probTicks{}).Ticks(c.lo, c.hi) {
+			if tk.Value > 1 || tk.Value < c.lo*(1-1e-9) || tk.Value > c.hi*(1+1e-9) {
+				t.Errorf("[%g, %g]: tick at %g outside", c.lo, c.hi, tk.Value)
+			}
+			if tk.Label != "" {
+				labels = append(labels, tk.Label)
+			}
+		}
+		if len(labels) < c.min || len(labels) > c.max {
+			t.Errorf("[%g, %g]: labels %v, want %d to %d", c.lo, c.hi, labels, c.min, c.max)
+		}
+	}
+}
