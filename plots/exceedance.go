@@ -25,6 +25,7 @@ type ExceedancePoint struct {
 // factor lies below x: the lower tail, where a mode fails, on a log scale.
 type ExceedanceSpec struct {
 	Title, XLabel string
+	YLabel        string // default "probability of a value below x"
 	Name          string // the series (the mode's title)
 	Key           string // mode key for the style ([ModeStyle])
 	Points        []ExceedancePoint
@@ -42,7 +43,10 @@ type ExceedanceSpec struct {
 // Points where no value lay below x show their upper bound as downward
 // triangles. It returns the points drawn (those inside the x range).
 func ExceedancePlot(s ExceedanceSpec) (*plot.Plot, []ExceedancePoint, error) {
-	p := newPlot(s.Title, s.XLabel, "probability of a value below x")
+	if s.YLabel == "" {
+		s.YLabel = "probability of a value below x"
+	}
+	p := newPlot(s.Title, s.XLabel, s.YLabel)
 	p.Y.Scale = plot.LogScale{}
 	p.Y.Tick.Marker = probTicks{}
 	st := styleOf(s.Key, 0)

@@ -103,6 +103,7 @@ func ExceedanceFigure(s *scenario.Scenario, r *montecarlo.Result, i int, method 
 	spec := plots.ExceedanceSpec{
 		Title:     fmt.Sprintf("Lower tail of the safety factor, %s (%s)", modeName(s, m.Mode), titleOf(s)),
 		XLabel:    sfLabel(s, m.Mode),
+		YLabel:    "probability of a safety factor below x",
 		Name:      m.Mode.Title(),
 		Key:       m.Mode.Key(),
 		Points:    Exceedance(&m.SF.Sketch, r.Confidence, method),
