@@ -64,11 +64,15 @@ func TestLegendOutsideData(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
+	huge, _, err := HistogramPlot(HistSpec{Title: "t", XLabel: "x", Hist: sampleHist(), Markers: []Marker{{X: 10, Label: strings.Repeat("a label far too long for one line ", 4)}}})
+	if err != nil {
+		t.Fatal(err)
+	}
 	for _, tc := range []struct {
 		name  string
 		a     arrangement
 		right bool
-	}{{"narrow legend", arrange(narrow), true}, {"wide legend", arrange(wide), false}} {
+	}{{"narrow legend", arrange(narrow), true}, {"wide legend", arrange(wide), false}, {"legend wider than the picture", arrange(huge), false}} {
 		a := tc.a
 		if !a.legendOn {
 			t.Fatalf("%s: no legend", tc.name)
@@ -88,6 +92,7 @@ func TestLegendOutsideData(t *testing.T) {
 	}
 	checkPNG(t, narrow)
 	checkPNG(t, wide)
+	checkPNG(t, huge)
 }
 
 func overlaps(a, b vg.Rectangle) bool {

@@ -91,7 +91,8 @@ func arrange(p *plot.Plot) arrangement {
 		if a.right > 0 {
 			a.legend = vg.Rectangle{Min: vg.Point{X: Width - margin - a.legW, Y: a.data.Max.Y - a.legH}, Max: vg.Point{X: Width - margin, Y: a.data.Max.Y}}
 		} else {
-			a.legend = vg.Rectangle{Min: vg.Point{X: a.data.Min.X, Y: margin}, Max: vg.Point{X: a.data.Min.X + a.legW, Y: margin + a.legH}}
+			x := math.Max(margin.Points(), math.Min(a.data.Min.X.Points(), (Width-margin-a.legW).Points()))
+			a.legend = vg.Rectangle{Min: vg.Point{X: vg.Length(x), Y: margin}, Max: vg.Point{X: vg.Length(x) + a.legW, Y: margin + a.legH}}
 		}
 	}
 	return a
@@ -132,6 +133,14 @@ func layout(p *plot.Plot) placement {
 	if l.legW <= 0.28*Width && l.legH <= Height-titleH-2*margin-vg.Points(40) {
 		l.right = l.legW + legendGap
 		return l
+	}
+	// Below the axes. A legend wider than the picture gets a smaller font
+	// (down to 7 pt) rather than a clipped line.
+	if avail := Width - 2*margin; l.legW > avail {
+		f := &p.Legend.TextStyle.Font.Size
+		*f = vg.Length(math.Max(7, float64(*f)*float64(avail-p.Legend.ThumbnailWidth)/float64(l.legW-p.Legend.ThumbnailWidth)))
+		r = p.Legend.Rectangle(draw.Canvas{})
+		l.legW, l.legH = r.Size().X, r.Size().Y
 	}
 	l.below = l.legH + legendGap
 	l.height = Height + l.below
