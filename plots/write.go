@@ -158,34 +158,55 @@ func wrapText(s string, sty text.Style, w vg.Length, n int) []string {
 		sty.Handler = plot.DefaultTextHandler
 	}
 	var lines []string
-	for _, para := range strings.Split(s, "\n") {
-		line := ""
-		for _, word := range strings.Fields(para) {
-			try := word
+	const nl = "\x00" // a line break kept as a word of its own
+	words := strings.Fields(strings.ReplaceAll(s, "\n", " "+nl+" "))
+	line := ""
+	for k, word := range words {
+		if len(lines) == n-1 { // the last line: the rest, shortened if need be
+			rest := strings.Join(words[k:], " ")
 			if line != "" {
-				try = line + " " + word
+				rest = line + " " + rest
 			}
-			if sty.Width(try) <= w {
-				line = try
-				continue
-			}
-			if line != "" {
-				lines = append(lines, line)
-			}
-			line = word
-			for sty.Width(line) > w { // a word alone too wide: cut it
-				cut := fitPrefix(line, sty, w)
-				lines = append(lines, cut)
-				line = line[len(cut):]
-			}
+			rest = strings.Join(strings.Fields(strings.ReplaceAll(rest, nl, " ")), " ")
+			return append(lines, shorten(rest, sty, w))
 		}
-		lines = append(lines, line)
+		if word == nl {
+			lines, line = append(lines, line), ""
+			continue
+		}
+		try := word
+		if line != "" {
+			try = line + " " + word
+		}
+		if sty.Width(try) <= w {
+			line = try
+			continue
+		}
+		if line != "" {
+			lines = append(lines, line)
+		}
+		line = word
+		for sty.Width(line) > w && len(lines) < n-1 { // a word alone too wide: cut it
+			cut := fitPrefix(line, sty, w)
+			lines = append(lines, cut)
+			line = line[len(cut):]
+		}
 	}
-	if len(lines) > n {
-		rest := strings.Join(lines[n-1:], " ")
-		lines = append(lines[:n-1], fitPrefix(rest, sty, w-sty.Width("…"))+"…")
+	if line != "" {
+		lines = append(lines, shorten(line, sty, w))
 	}
 	return lines
+}
+
+// shorten returns s, or its longest prefix that fits w with "…" after it.
+func shorten(s string, sty text.Style, w vg.Length) string {
+	if len(s) > 1000 { // no line holds that many characters
+		s = s[:1000]
+	}
+	if sty.Width(s) <= w {
+		return s
+	}
+	return strings.TrimSpace(fitPrefix(s, sty, w-sty.Width("…"))) + "…"
 }
 
 // fitPrefix returns the longest prefix of s (whole runes, at least one)
