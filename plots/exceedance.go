@@ -124,8 +124,22 @@ func ExceedancePlot(s ExceedanceSpec) (*plot.Plot, []ExceedancePoint, error) {
 			return nil, nil, err
 		}
 		st.Line(l, vg.Points(2))
-		p.Add(l)
-		p.Legend.Add(s.Name+": share of values below x", l)
+		// The mode's marker at a few points, evenly spaced in x, so that
+		// the curve carries the mode's colour, dash and marker as elsewhere.
+		var marks plotter.XYs
+		for i, next := 0, line[0].X; i < len(line); i++ {
+			if line[i].X >= next {
+				marks = append(marks, line[i])
+				next = line[i].X + (xmax-xmin)/8
+			}
+		}
+		sc, err := plotter.NewScatter(marks)
+		if err != nil {
+			return nil, nil, err
+		}
+		st.Scatter(sc, vg.Points(3.5))
+		p.Add(l, sc)
+		p.Legend.Add(s.Name+": share of values below x", l, sc)
 	}
 	if len(ups) > 0 {
 		sc, err := plotter.NewScatter(ups)
