@@ -36,7 +36,7 @@ const SchemaVersion = 2
 // Envelope is what every JSON document starts with.
 type Envelope struct {
 	SchemaVersion int    `json:"schema_version"`
-	Kind          string `json:"kind" jsonschema:"enum=nominal,enum=simulate,enum=sweep,enum=spread-limit,enum=compare"`
+	Kind          string `json:"kind" jsonschema:"enum=nominal,enum=simulate,enum=sweep,enum=spread-limit,enum=compare,enum=life"`
 	ToolVersion   string `json:"tool_version"`
 }
 

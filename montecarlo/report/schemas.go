@@ -14,6 +14,7 @@ var Documents = map[string]any{
 	"simulate": SimDoc{},
 	"sweep":    SweepDoc{},
 	"compare":  CompareDoc{},
+	"life":     LifeDoc{},
 }
 
 // GenerateSchemas returns the JSON Schema of every document (reflected from

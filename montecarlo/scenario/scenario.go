@@ -61,6 +61,9 @@ type Scenario struct {
 	// (members.roughness; 0: not given). It chooses the row of the embedding
 	// estimate (VDI 2230-1 Table 5).
 	Roughness float64
+	// Life is the service-life problem (fatigue.curve, fatigue.design_life,
+	// loads.spectrum); nil when the file gives no curve.
+	Life *montecarlo.LifeSpec
 	// given holds the registry paths the file sets.
 	given map[string]bool
 

@@ -1,0 +1,108 @@
+package montecarlo_test
+
+import (
+	"context"
+	"fmt"
+	"math"
+	"testing"
+
+	"boltrisk/montecarlo"
+	"boltrisk/montecarlo/life"
+	"boltrisk/montecarlo/scenario"
+)
+
+// lifeVDI is the check of reference-data-2 A3/A5 worked check 1 (computed
+// there; VDI 2230-1 formulas not confirmed against the published text):
+// M12, σASV log-normal with median 48.875 MPa and c.o.v. 0.10, a fixed
+// amplitude σa = 60 MPa, slope k = 3. The joint is separated over the
+// whole cycle (preload 1 kN, loads 20 kN … 20 kN + 120 MPa·As per bolt,
+// As = 84.2665 mm² from the tool's d2, d3), so the bolt force is the
+// external load and σa = 60 MPa whatever the stiffness (Shigley §8-7).
+func lifeVDI(extra string) string {
+	mean := 48.875 * math.Sqrt(1.01) // log-normal mean for median 48.875, c.o.v. 0.1
+	return fmt.Sprintf(`name: VDI closed form
+bolt: {thread: M12, class: "10.9", length: 60 mm}
+members:
+  layers:
+    - {thickness: 20 mm, material: steel}
+    - {thickness: 20 mm, material: steel}
+tightening: {method: preload, preload: 1 kN}
+loads: {axial_max: %.4f N, axial_min: 20000 N}
+fatigue:
+  criterion: amplitude
+  endurance: {dist: lognormal, mean: %.6f MPa, cov: 10%%}
+  curve: vdi2230
+  design_life: 1e6
+%s`, 20000+120*84.266538, mean, extra)
+}
+
+func TestRunLifeLognormalClosedForm(t *testing.T) {
+	t.Parallel()
+	s, err := scenario.Parse("vdi.yaml", []byte(lifeVDI("")))
+	if err != nil {
+		t.Fatal(err)
+	}
+	n := int64(400_000)
+	if testing.Short() {
+		n = 100_000
+	}
+	res, err := montecarlo.RunLife(context.Background(), &s.Problem, s.Life, montecarlo.LifeSettings{
+		Settings: montecarlo.Settings{Samples: n, Seed: 7, Workers: 2, Confidence: 0.999}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	// Closed form: ln N ~ Normal(ln 1.08103·10⁶, 3·ζ), ζ = sqrt(ln 1.01)
+	// (reference-data-2 A3: N50 = 1.08103·10⁶, sd(ln N) = 0.299254; computed).
+	ln := life.Lognormal{Mu: math.Log(2e6 * math.Pow(48.875/60, 3)), Sigma: 3 * math.Sqrt(math.Log(1.01))}
+	if math.Abs(ln.Sigma-0.299254) > 1e-6 {
+		t.Fatalf("sd(ln N) = %g, reference 0.299254", ln.Sigma)
+	}
+	for _, c := range []struct{ n, want float64 }{
+		{5e5, 0.995011}, // reference-data-2 A5 check 1 (computed)
+		{1e6, 0.602704}, // idem
+		{1.5e6, 0},      // closed form below
+	} {
+		want := c.want
+		if want == 0 {
+			want, _ = ln.Reliability(c.n)
+		}
+		// the curve's value at the grid point nearest c.n, whose R is exact
+		var pt life.Point
+		for _, q := range res.Reliability {
+			if math.Abs(math.Log(q.Cycles/c.n)) < math.Abs(math.Log(pt.Cycles/c.n)) || pt.Cycles == 0 {
+				pt = q
+			}
+		}
+		exact, _ := ln.Reliability(pt.Cycles)
+		if c.want > 0 && math.Abs(pt.Cycles/c.n-1) < 1e-9 {
+			exact = c.want
+		}
+		if exact < pt.Lower || exact > pt.Upper {
+			t.Errorf("R(%g) = %.5f [%.5f, %.5f], closed form %.6f", pt.Cycles, pt.Reliability, pt.Lower, pt.Upper, exact)
+		}
+	}
+	// Above ND the curve has an endurance limit: R flat at P(σAS ≥ σa) =
+	// 0.019896 (reference-data-2 A5 check 1, computed).
+	last := res.Reliability[len(res.Reliability)-1]
+	if last.Lower > 0.019896 || last.Upper < 0.019896 {
+		t.Errorf("R(10¹²) = %.5f [%.5f, %.5f], want 0.019896", last.Reliability, last.Lower, last.Upper)
+	}
+	// P(failure within 10⁶ cycles) = 1 − 0.602704.
+	if d := res.DesignFailure; d.Lower > 0.397296 || d.Upper < 0.397296 {
+		t.Errorf("P(life ≤ 10⁶) = %.5f [%.5f, %.5f], want 0.397296", d.P, d.Lower, d.Upper)
+	}
+	// B10 = 7.36683·10⁵ (reference-data-2 A5 check 1, computed), within
+	// one grid step of the distribution-free bounds.
+	b10 := res.BLives[0]
+	if b10.P != 0.1 || b10.Lower > 7.36683e5 || b10.Upper < 7.36683e5 {
+		t.Errorf("B10 = %.5g, bounds [%.5g, %.5g], want 7.36683e5", b10.Cycles, b10.Lower, b10.Upper)
+	}
+	if b1 := res.BLives[1]; b1.Lower > 5.38883e5 || b1.Upper < 5.38883e5 {
+		t.Errorf("B1 = %.5g, bounds [%.5g, %.5g], want 5.38883e5", b1.Cycles, b1.Lower, b1.Upper)
+	}
+	for i := 1; i < len(res.Reliability); i++ {
+		if res.Reliability[i].Reliability > res.Reliability[i-1].Reliability {
+			t.Fatalf("R(N) rises at %g", res.Reliability[i].Cycles)
+		}
+	}
+}
