@@ -46,6 +46,7 @@ type Kernel struct {
 	jointModes []model.Mode // the reported joint-level modes
 	set        model.ModeSet
 	nominal    model.Nominal
+	cases      []Case // load cases (none: Base's loads)
 }
 
 // item is one uncertain input in its group, laid out for the sampling loop:
@@ -67,9 +68,12 @@ type item struct {
 // NewKernel compiles a problem. modes are the modes to report (each must be
 // active at the nominal values); nil means every active mode.
 func NewKernel(p *Problem, modes []model.Mode) (*Kernel, error) {
-	k := &Kernel{base: p.Base, vars: p.Vars, nBolts: 1}
+	k := &Kernel{base: p.Base, vars: p.Vars, nBolts: 1, cases: p.Cases}
 	k.nominal = model.EvaluateNominal(&k.base)
 	nom := &k.nominal.Outcome
+	if len(p.Cases) > 0 {
+		nom = casesActive(p, nom)
+	}
 	if modes == nil {
 		for m := range model.NumModes {
 			if nom.Active[m] {
@@ -97,7 +101,7 @@ func NewKernel(p *Problem, modes []model.Mode) (*Kernel, error) {
 	}
 	pos := make([]int, len(p.Vars)) // index within its group
 	for i, v := range p.Vars {
-		if v.Field == nil {
+		if v.Field == nil && v.Case == 0 {
 			return nil, fmt.Errorf("montecarlo: input %q has no field binding", v.Name)
 		}
 		if !(v.Shared >= 0 && v.Shared < 1) {
@@ -151,6 +155,9 @@ func NewKernel(p *Problem, modes []model.Mode) (*Kernel, error) {
 		k.nBolts = p.Base.Bolts
 	}
 	k.jointLevel = k.jointLevel || p.Base.ShearLoad > 0
+	for _, c := range p.Cases {
+		k.jointLevel = k.jointLevel || c.Values[CaseShear] > 0
+	}
 	return k, nil
 }
 
@@ -310,6 +317,9 @@ type Out struct {
 	Clamp     []float64 // per sample and bolt, N
 	// With Margins: per sample and component (see Kernel.Components).
 	G []float64
+	// With load cases: per sample and case, the reported modes the joint
+	// fails in that case (Fail is their union).
+	CaseFail []model.ModeSet
 }
 
 // NewOut returns outputs for blocks of up to n samples.
@@ -325,6 +335,9 @@ func (k *Kernel) NewOut(n int, want Want) *Out {
 	}
 	if want&Margins != 0 {
 		o.G = make([]float64, n*k.Components())
+	}
+	if len(k.cases) > 0 {
+		o.CaseFail = make([]model.ModeSet, n*len(k.cases))
 	}
 	return o
 }
@@ -355,17 +368,24 @@ type Evaluator struct {
 	bolts     []model.BoltResult
 	boltBuf   [4]model.BoltResult // backing store for small joints, inside the evaluator
 	out       model.Outcome
-	_         [64]byte // keep other goroutines' data off these cache lines
+	caseVals  []float64 // the load cases' sampled values (len(cases)·NumCaseSlots)
+	_         [64]byte  // keep other goroutines' data off these cache lines
 }
 
 // NewEvaluator returns an evaluator of the kernel.
 func (k *Kernel) NewEvaluator() *Evaluator {
 	e := &Evaluator{k: k, in: k.base}
+	if len(k.cases) > 0 {
+		e.caseVals = make([]float64, len(k.cases)*NumCaseSlots, len(k.cases)*NumCaseSlots+8)
+		for ci, c := range k.cases {
+			copy(e.caseVals[ci*NumCaseSlots:], c.Values[:])
+		}
+	}
 	for _, it := range k.shared {
-		e.sharedPtr = append(e.sharedPtr, k.vars[it.v].Field(&e.in))
+		e.sharedPtr = append(e.sharedPtr, e.bind(k.vars[it.v]))
 	}
 	for _, it := range k.perBolt {
-		e.boltPtr = append(e.boltPtr, k.vars[it.v].Field(&e.in))
+		e.boltPtr = append(e.boltPtr, e.bind(k.vars[it.v]))
 	}
 	e.allPtr = append(slices.Clip(e.sharedPtr), e.boltPtr...)
 	e.stiff = model.ComputeStiffness(&e.in)
@@ -389,6 +409,10 @@ func setRow(ptrs []*float64, row []float64) {
 // o. It allocates nothing and calls no interface.
 func (e *Evaluator) Eval(rows []float64, n int, o *Out, want Want) {
 	k := e.k
+	if len(k.cases) > 0 {
+		e.evalCases(rows, n, o, want)
+		return
+	}
 	if want == 0 && k.nBolts == 1 && k.nParts == 0 && !k.jointLevel && !k.stiffVaries {
 		e.evalOne(rows, n, o)
 		return

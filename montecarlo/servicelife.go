@@ -367,6 +367,9 @@ func (w *lifeWorker) runChunk(seed uint64, c, n int64) {
 		for j := range m {
 			row := w.rows[j*d : j*d+d]
 			setRow(e.sharedPtr, row[:ns])
+			if len(k.cases) > 0 {
+				e.apply(0) // the spectrum's levels scale the first load case
+			}
 			if k.stiffVaries {
 				e.stiff = model.ComputeStiffness(&e.in)
 			}

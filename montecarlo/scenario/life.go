@@ -19,7 +19,7 @@ import (
 // fatigue.design_life are contracts) and of the loads section.
 var (
 	lifeFatigueKeys = []string{"curve", "design_life", "cycle_rate", "critical_damage", "life_scatter", "rolling"}
-	lifeLoadKeys    = []string{"spectrum"}
+	lifeLoadKeys    = []string{"spectrum", "cases"}
 	spectrumKeys    = []string{"max", "min", "amplitude", "mean", "level", "cycles"}
 )
 
@@ -41,6 +41,7 @@ var CurveSource = map[string]string{
 // damage sum. Without fatigue.curve the other keys are refused.
 func (b *builder) life() error {
 	p, r, s := b.p, b.r, b.s
+	b.restoreCase()
 	curveName, err := p.word(r, "fatigue.curve", "", montecarlo.LifeCurveKeys())
 	if err != nil {
 		return err
@@ -380,6 +381,169 @@ func lifeWordKeys() map[string]keyKind {
 		}, "description": "critical Palmgren–Miner sum of a spectrum: a number (default 1), wirsching (log-normal, median 1, c.o.v. 0.3) or a distribution"},
 		"fatigue.life_scatter": {"type": "number", "exclusiveMinimum": 0, "maximum": 1, "description": "sd(log10 N) of the EN 1993-1-9 median curve (default 0.2)"},
 		"fatigue.rolling":      oneOf("VDI 2230 thread rolling: sv before heat treatment (default), sg after", "sv", "sg"),
-		"loads.spectrum":       {"type": "array", "minItems": 1, "items": row, "description": "block spectrum per pass: rows of max/min, amplitude/mean or level, each with cycles"},
+		"loads.cases": {"type": "array", "minItems": 1, "maxItems": montecarlo.MaxCases, "description": "named load cases; every mode is checked in each, a mode fails when it fails in any",
+			"items": map[string]any{"type": "object", "additionalProperties": false, "required": []string{"name"}, "properties": map[string]any{
+				"name":               map[string]any{"type": "string", "pattern": "^[A-Za-z0-9_-]{1,40}$"},
+				"axial_max":          map[string]any{"$ref": "#/$defs/value_force"},
+				"axial_min":          map[string]any{"$ref": "#/$defs/value_force"},
+				"shear":              map[string]any{"$ref": "#/$defs/value_force"},
+				"temperature_change": map[string]any{"$ref": "#/$defs/value_temperature_difference"},
+			}}},
+		"loads.spectrum": {"type": "array", "minItems": 1, "items": row, "description": "block spectrum per pass: rows of max/min, amplitude/mean or level, each with cycles"},
 	}
+}
+
+// caseKeys are the keys of one load case.
+var caseKeys = []string{"name", "axial_max", "axial_min", "shear", "temperature_change"}
+
+// caseFields are the registry paths behind each case slot.
+var caseFields = [montecarlo.NumCaseSlots]string{"loads.axial_max", "loads.axial_min", "loads.shear", "service.temperature_change"}
+
+// loadsWithCases reads loads.cases (if any) before the loads section, which
+// is then checked against the most demanding values of the cases (the
+// largest axial_max and shear, the least axial_min, the largest |ΔT|); the
+// base inputs return to the first case's values in restoreCase.
+func (b *builder) loadsWithCases() error {
+	if _, ok := b.r.vals["loads.cases"]; !ok {
+		return b.loads()
+	}
+	if err := b.cases(); err != nil {
+		return err
+	}
+	cs := b.s.Problem.Cases
+	in := b.in
+	in.AxialMax, in.AxialMin, in.ShearLoad, in.TemperatureChange = cs[0].Values[0], cs[0].Values[1], cs[0].Values[2], cs[0].Values[3]
+	for _, c := range cs[1:] {
+		in.AxialMax = math.Max(in.AxialMax, c.Values[0])
+		in.AxialMin = math.Min(in.AxialMin, c.Values[1])
+		in.ShearLoad = math.Max(in.ShearLoad, c.Values[2])
+		if math.Abs(c.Values[3]) > math.Abs(in.TemperatureChange) {
+			in.TemperatureChange = c.Values[3]
+		}
+	}
+	return b.loads()
+}
+
+// restoreCase sets the base inputs to the first load case (the nominal
+// joint of the reports).
+func (b *builder) restoreCase() {
+	if cs := b.s.Problem.Cases; len(cs) > 0 {
+		b.in.AxialMax, b.in.AxialMin, b.in.ShearLoad, b.in.TemperatureChange = cs[0].Values[0], cs[0].Values[1], cs[0].Values[2], cs[0].Values[3]
+	}
+}
+
+// cases reads loads.cases: named load cases, each with its own axial_max,
+// axial_min, shear and temperature_change (a value or a distribution);
+// a key a case omits takes the top-level loads.* or
+// service.temperature_change (drawn per case when uncertain).
+func (b *builder) cases() error {
+	p, r, s := b.p, b.r, b.s
+	n := r.vals["loads.cases"]
+	if n.Kind != yaml.SequenceNode || len(n.Content) == 0 {
+		return p.errf(n.Line, "loads.cases", "", "expected a list of load cases, each {name: …, axial_max: …, axial_min: …, shear: …, temperature_change: …}")
+	}
+	if len(n.Content) > montecarlo.MaxCases {
+		return p.errf(n.Line, "loads.cases", fmt.Sprint(len(n.Content)), "at most %d load cases", montecarlo.MaxCases)
+	}
+	// Top-level values are the cases' defaults; their distributions move
+	// into the cases.
+	var defaults [montecarlo.NumCaseSlots]*montecarlo.Var
+	var base [montecarlo.NumCaseSlots]float64
+	for i, path := range caseFields {
+		base[i] = *mustField(path).ptr(b.in)
+		if v, ok := s.Uncertain(path); ok {
+			c := *v
+			defaults[i] = &c
+		}
+	}
+	vars := s.Problem.Vars[:0:0]
+	for _, v := range s.Problem.Vars {
+		if !slices.Contains(caseFields[:], v.Name) {
+			vars = append(vars, v)
+		}
+	}
+	s.Problem.Vars = vars
+	first := map[string]int{}
+	for ci, cn := range n.Content {
+		where := fmt.Sprintf("loads.cases[%d]", ci+1)
+		if cn.Kind != yaml.MappingNode {
+			return p.errf(cn.Line, where, "", "expected a mapping such as {name: operation, axial_max: 16 kN}")
+		}
+		vals := map[string]*yaml.Node{}
+		err := p.pairs(cn, where, func(k, v *yaml.Node) error {
+			if !slices.Contains(caseKeys, k.Value) {
+				return p.errf(k.Line, where+"."+k.Value, "", "unknown key in a load case%s; allowed: %s", suggest(k.Value, caseKeys), strings.Join(caseKeys, ", "))
+			}
+			vals[k.Value] = v
+			return nil
+		})
+		if err != nil {
+			return err
+		}
+		nameNode, ok := vals["name"]
+		if !ok || nameNode.Kind != yaml.ScalarNode || strings.TrimSpace(nameNode.Value) == "" {
+			return p.errf(cn.Line, where+".name", "", "required: every load case needs a name (e.g. operation, proof-test, transport)")
+		}
+		name := strings.TrimSpace(nameNode.Value)
+		if !validCaseName(name) {
+			return p.errf(nameNode.Line, where+".name", name, "a case name is a word of letters, digits, '-' or '_' (at most 40)")
+		}
+		if j, dup := first[name]; dup {
+			return p.errf(nameNode.Line, where+".name", name, "given twice (first in loads.cases[%d]); each load case needs its own name", j)
+		}
+		first[name] = ci + 1
+		c := montecarlo.Case{Name: name}
+		for slot, key := range caseKeys[1:] {
+			node, ok := vals[key]
+			path := where + "." + key
+			f := mustField(caseFields[slot])
+			if !ok {
+				c.Values[slot] = base[slot]
+				if d := defaults[slot]; d != nil {
+					s.Problem.Vars = append(s.Problem.Vars, montecarlo.Var{Name: "loads.cases." + name + "." + key, Dist: d.Dist, Role: d.Role, Case: ci + 1, Slot: montecarlo.CaseSlot(slot)})
+				}
+				continue
+			}
+			tmp := rawDoc{vals: map[string]*yaml.Node{path: node}}
+			cf := f
+			cf.path = path
+			v, d, _, err := p.value(tmp, cf)
+			if err != nil {
+				return err
+			}
+			c.Values[slot] = v
+			if d != nil {
+				s.Problem.Vars = append(s.Problem.Vars, montecarlo.Var{Name: "loads.cases." + name + "." + key, Dist: *d, Role: f.role &^ montecarlo.PerBolt, Case: ci + 1, Slot: montecarlo.CaseSlot(slot)})
+			}
+		}
+		v := c.Values
+		line := func(k string) int {
+			if n, ok := vals[k]; ok {
+				return n.Line
+			}
+			return cn.Line
+		}
+		switch {
+		case v[1] > v[0]:
+			return p.errf(line("axial_min"), where+".axial_min", b.fmt(v[1], units.Force), "exceeds the case's axial_max %s (axial_min must not exceed axial_max)", b.fmt(v[0], units.Force))
+		case v[2] < 0:
+			return p.errf(line("shear"), where+".shear", b.fmt(v[2], units.Force), "must be ≥ 0 (a magnitude)")
+		case math.Abs(v[3]) > 500:
+			return p.errf(line("temperature_change"), where+".temperature_change", b.fmt(v[3], units.TempDiff), "must lie within %s … %s", b.fmt(-500, units.TempDiff), b.fmt(500, units.TempDiff))
+		}
+		s.Problem.Cases = append(s.Problem.Cases, c)
+	}
+	return nil
+}
+
+func validCaseName(s string) bool {
+	if len(s) > 40 {
+		return false
+	}
+	for _, c := range s {
+		if !(c == '-' || c == '_' || c >= '0' && c <= '9' || c >= 'a' && c <= 'z' || c >= 'A' && c <= 'Z') {
+			return false
+		}
+	}
+	return true
 }
