@@ -11,3 +11,15 @@ func BoltForceAt(fi, phi, p float64) float64 {
 	}
 	return p
 }
+
+// SetFatigueLife records the fatigue_life mode of a bolt: demand the design
+// life, capacity the bolt's life in cycles (+Inf: no damage), both in
+// cycles; the mode fails when the life does not exceed the design life
+// ([Failed]). The life itself comes from the S–N curves of model/fatigue
+// under the scenario's spectrum (computed by the caller). Lives above
+// 10³⁰ cycles are held at 10³⁰ so that capacity/demand stays finite.
+func SetFatigueLife(b *BoltResult, designLife, life float64) {
+	b.Active[FatigueLife] = true
+	b.Demand[FatigueLife] = designLife
+	b.Capacity[FatigueLife] = min(life, 1e30)
+}

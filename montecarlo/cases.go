@@ -44,6 +44,9 @@ func (e *Evaluator) bind(v Var) *float64 {
 	if v.Case > 0 {
 		return &e.caseVals[(v.Case-1)*NumCaseSlots+int(v.Slot)]
 	}
+	if v.Aux > 0 {
+		return &e.aux[v.Aux-1]
+	}
 	return v.Field(&e.in)
 }
 
@@ -92,6 +95,9 @@ func (e *Evaluator) evalCases(rows []float64, n int, o *Out, want Want) {
 				}
 				br := &bolts[b]
 				model.EvaluateBolt(&e.in, &e.stiff, k.set, br)
+				if e.lc != nil {
+					e.lifeMode(br)
+				}
 				invalid = invalid || br.Invalid
 				var f model.ModeSet
 				for _, m := range k.boltModes {

@@ -46,7 +46,8 @@ type Kernel struct {
 	jointModes []model.Mode // the reported joint-level modes
 	set        model.ModeSet
 	nominal    model.Nominal
-	cases      []Case // load cases (none: Base's loads)
+	cases      []Case    // load cases (none: Base's loads)
+	life       *LifeSpec // service life (nil: no fatigue_life mode)
 }
 
 // item is one uncertain input in its group, laid out for the sampling loop:
@@ -68,8 +69,13 @@ type item struct {
 // NewKernel compiles a problem. modes are the modes to report (each must be
 // active at the nominal values); nil means every active mode.
 func NewKernel(p *Problem, modes []model.Mode) (*Kernel, error) {
-	k := &Kernel{base: p.Base, vars: p.Vars, nBolts: 1, cases: p.Cases}
+	k := &Kernel{base: p.Base, vars: p.Vars, nBolts: 1, cases: p.Cases, life: p.Life}
 	k.nominal = model.EvaluateNominal(&k.base)
+	if p.Life != nil {
+		if err := k.nominalLife(); err != nil {
+			return nil, err
+		}
+	}
 	nom := &k.nominal.Outcome
 	if len(p.Cases) > 0 {
 		nom = casesActive(p, nom)
@@ -101,7 +107,7 @@ func NewKernel(p *Problem, modes []model.Mode) (*Kernel, error) {
 	}
 	pos := make([]int, len(p.Vars)) // index within its group
 	for i, v := range p.Vars {
-		if v.Field == nil && v.Case == 0 {
+		if v.Field == nil && v.Case == 0 && v.Aux == 0 {
 			return nil, fmt.Errorf("montecarlo: input %q has no field binding", v.Name)
 		}
 		if !(v.Shared >= 0 && v.Shared < 1) {
@@ -369,7 +375,9 @@ type Evaluator struct {
 	boltBuf   [4]model.BoltResult // backing store for small joints, inside the evaluator
 	out       model.Outcome
 	caseVals  []float64 // the load cases' sampled values (len(cases)·NumCaseSlots)
-	_         [64]byte  // keep other goroutines' data off these cache lines
+	lc        *lifeCurves
+	aux       [numAux]float64 // the service life's own draws
+	_         [64]byte        // keep other goroutines' data off these cache lines
 }
 
 // NewEvaluator returns an evaluator of the kernel.
@@ -380,6 +388,11 @@ func (k *Kernel) NewEvaluator() *Evaluator {
 		for ci, c := range k.cases {
 			copy(e.caseVals[ci*NumCaseSlots:], c.Values[:])
 		}
+	}
+	if k.life != nil {
+		e.lc, _ = newLifeCurves(k.life, &k.base) // checked by NewKernel
+		e.aux = auxDefaults
+		e.aux[AuxCriticalDamage-1] = k.life.fixedCritical()
 	}
 	for _, it := range k.shared {
 		e.sharedPtr = append(e.sharedPtr, e.bind(k.vars[it.v]))
@@ -413,7 +426,7 @@ func (e *Evaluator) Eval(rows []float64, n int, o *Out, want Want) {
 		e.evalCases(rows, n, o, want)
 		return
 	}
-	if want == 0 && k.nBolts == 1 && k.nParts == 0 && !k.jointLevel && !k.stiffVaries {
+	if want == 0 && k.nBolts == 1 && k.nParts == 0 && !k.jointLevel && !k.stiffVaries && e.lc == nil {
 		e.evalOne(rows, n, o)
 		return
 	}
@@ -436,6 +449,9 @@ func (e *Evaluator) Eval(rows []float64, n int, o *Out, want Want) {
 			}
 			br := &bolts[b]
 			model.EvaluateBolt(&e.in, &e.stiff, k.set, br)
+			if e.lc != nil {
+				e.lifeMode(br)
+			}
 			invalid = invalid || br.Invalid
 			var f model.ModeSet
 			for _, m := range k.boltModes {

@@ -33,6 +33,9 @@ type Var struct {
 	// Slot (see CaseSlot); Field is then unused. 0: an ordinary input.
 	Case int
 	Slot CaseSlot
+	// Aux (1-based) marks a draw of the service life that no model input
+	// holds: AuxLifeScatter or AuxCriticalDamage. Field is then unused.
+	Aux int
 }
 
 // PerBolt reports whether each bolt of the joint draws its own value.
@@ -52,4 +55,7 @@ type Problem struct {
 	Corr []Correlation
 	// Cases are the named load cases (none: the single loads of Base).
 	Cases []Case
+	// Life is the service-life problem (nil: none); with it the mode
+	// fatigue_life is evaluated.
+	Life *LifeSpec
 }

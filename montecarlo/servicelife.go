@@ -161,13 +161,51 @@ func newLifeCurves(spec *LifeSpec, in *model.Inputs) (*lifeCurves, error) {
 	return c, nil
 }
 
+// The service life's own draws, bound to Vars with Aux set: a standard
+// normal of the EN 1993-1-9 life scatter and the critical damage sum.
+const (
+	AuxLifeScatter    = 1
+	AuxCriticalDamage = 2
+	numAux            = 2
+)
+
+// auxDefaults are the draws' values when they are not uncertain.
+var auxDefaults = [numAux]float64{0, 1}
+
+// lifeMode evaluates the fatigue_life mode of one bolt.
+func (e *Evaluator) lifeMode(br *model.BoltResult) {
+	if !e.k.set.Has(model.FatigueLife) {
+		return
+	}
+	l, _, err := e.lc.boltLife(&e.in, br.Preload, e.stiff.Phi, e.aux[0], e.aux[1])
+	if err != nil || math.IsNaN(l) {
+		br.Invalid, l = true, 0
+	}
+	model.SetFatigueLife(br, e.k.life.DesignLife, l)
+}
+
+// nominalLife adds the fatigue_life mode to the kernel's nominal joint.
+func (k *Kernel) nominalLife() error {
+	n, err := k.life.NominalLife(&k.base)
+	var re *fatigue.RangeError
+	if err != nil && !(errors.As(err, &re) && re.Param == "nominal life") {
+		return err
+	}
+	o := &k.nominal.Outcome
+	var b model.BoltResult
+	model.SetFatigueLife(&b, k.life.DesignLife, n)
+	o.Active[model.FatigueLife], o.Demand[model.FatigueLife], o.Capacity[model.FatigueLife] = true, b.Demand[model.FatigueLife], b.Capacity[model.FatigueLife]
+	return nil
+}
+
 // boltLife returns the life in cycles of one bolt with residual preload fi
 // and load factor phi under the sample's inputs in, with the standard
-// normals z1 (life scatter) and z2 (critical damage). flags gets
+// normal z1 (EN 1993-1-9 life scatter) and the critical damage sum dcrit
+// (used for spectra only). flags gets
 // lifeExtrapolated or lifeClamped when the life came from beyond the
 // curve's validity range. A sample outside a curve's domain returns an
 // error (it allocates only then).
-func (c *lifeCurves) boltLife(in *model.Inputs, fi, phi, z1, z2 float64) (float64, uint8, error) {
+func (c *lifeCurves) boltLife(in *model.Inputs, fi, phi, z1, dcrit float64) (float64, uint8, error) {
 	spec := c.spec
 	var (
 		sh  fatigue.Shigley
@@ -233,8 +271,8 @@ func (c *lifeCurves) boltLife(in *model.Inputs, fi, phi, z1, z2 float64) (float6
 		return math.Inf(1), flags, nil
 	}
 	n := d.Cycles / d.Sum
-	if spectrum && spec.Critical != nil {
-		n *= math.Max(spec.Critical.FromNormal(z2), 0)
+	if spectrum {
+		n *= math.Max(dcrit, 0)
 	}
 	if c.kind == CurveEN1993 {
 		n *= math.Pow(10, spec.LifeSD*z1)
@@ -257,6 +295,15 @@ const (
 	lifeClamped
 )
 
+// fixedCritical returns the critical damage sum when it is not uncertain
+// (and the median of a distribution otherwise).
+func (s *LifeSpec) fixedCritical() float64 {
+	if s.Critical == nil {
+		return 1
+	}
+	return s.Critical.Quantile(0.5)
+}
+
 // NominalLife returns the life in cycles of the nominal joint (inputs at
 // their means, median curve, D_crit = 1): the check the scenario loader
 // makes. The error names the curve's parameter and its allowed range.
@@ -266,7 +313,7 @@ func (s *LifeSpec) NominalLife(in *model.Inputs) (float64, error) {
 		return 0, err
 	}
 	nom := model.EvaluateNominal(in)
-	n, flags, err := c.boltLife(in, nom.Outcome.Bolt.Preload, nom.Outcome.Stiffness.Phi, 0, 0)
+	n, flags, err := c.boltLife(in, nom.Outcome.Bolt.Preload, nom.Outcome.Stiffness.Phi, 0, s.fixedCritical())
 	if err != nil {
 		return 0, err
 	}
@@ -330,31 +377,23 @@ type LifeResult struct {
 	GridMin, GridMax float64
 }
 
-// lifeStream sets the life-scatter and critical-damage draws apart from the
-// input draws of the same chunk (whose streams are those of Run, so a life
-// run sees the joints of a simulate run with the same seed).
-const lifeStream = 0x6c696665
-
 type lifeWorker struct {
-	k      *Kernel
-	ev     *Evaluator
-	c      *lifeCurves
-	rows   []float64
-	aux    []float64
-	block  int
-	pcg    rand.PCG
-	pcgAux rand.PCG
-	acc    *life.Accumulator
-	bad    int64
-	extra  int64
-	clamp  int64
-	err    error
-	_      [64]byte
+	k     *Kernel
+	ev    *Evaluator
+	c     *lifeCurves
+	rows  []float64
+	block int
+	pcg   rand.PCG
+	acc   *life.Accumulator
+	bad   int64
+	extra int64
+	clamp int64
+	err   error
+	_     [64]byte
 }
 
 func (w *lifeWorker) runChunk(seed uint64, c, n int64) {
 	rng.Seed(&w.pcg, seed, uint64(c))
-	rng.Seed(&w.pcgAux, rng.Derive(seed, lifeStream), uint64(c))
 	k, e := w.k, w.ev
 	d, ns, np, nb := k.Dim(), len(k.shared), len(k.perBolt), k.nBolts
 	offB := ns + k.nParts
@@ -362,8 +401,6 @@ func (w *lifeWorker) runChunk(seed uint64, c, n int64) {
 		m := int(min(int64(w.block), n-j0))
 		k.Draw(&w.pcg, w.rows, m)
 		k.MapNative(w.rows, m)
-		aux := w.aux[:2*nb*m]
-		rng.Normals(&w.pcgAux, aux, 1)
 		for j := range m {
 			row := w.rows[j*d : j*d+d]
 			setRow(e.sharedPtr, row[:ns])
@@ -386,8 +423,7 @@ func (w *lifeWorker) runChunk(seed uint64, c, n int64) {
 					invalid = true
 					break
 				}
-				z := aux[2*(j*nb+b):]
-				l, f, err := w.c.boltLife(&e.in, br.Preload, e.stiff.Phi, z[0], z[1])
+				l, f, err := w.c.boltLife(&e.in, br.Preload, e.stiff.Phi, e.aux[0], e.aux[1])
 				if err != nil || math.IsNaN(l) {
 					if w.err == nil {
 						w.err = err
@@ -436,7 +472,9 @@ func RunLife(ctx context.Context, p *Problem, spec *LifeSpec, s LifeSettings) (*
 		}
 	}
 	start := time.Now()
-	k, err := NewKernel(p, []model.Mode{})
+	q := *p
+	q.Life = spec
+	k, err := NewKernel(&q, []model.Mode{})
 	if err != nil {
 		return nil, err
 	}
@@ -459,7 +497,6 @@ func RunLife(ctx context.Context, p *Problem, spec *LifeSpec, s LifeSettings) (*
 		w := &lifeWorker{k: k, ev: k.NewEvaluator(), c: c, block: blockLen(k.Dim()), acc: acc}
 		d := max(k.Dim(), 1)
 		w.rows = make([]float64, d*w.block, d*w.block+8)
-		w.aux = make([]float64, 2*k.nBolts*w.block, 2*k.nBolts*w.block+8)
 		workers[i] = w
 	}
 	_, interrupted := schedule(ctx, s.Samples, len(workers), 0, s.Progress, nil, func(wi int, c int64, _ []sums) {

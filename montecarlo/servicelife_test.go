@@ -4,8 +4,10 @@ import (
 	"context"
 	"fmt"
 	"math"
+	"strings"
 	"testing"
 
+	"boltrisk/model"
 	"boltrisk/montecarlo"
 	"boltrisk/montecarlo/life"
 	"boltrisk/montecarlo/scenario"
@@ -104,5 +106,67 @@ func TestRunLifeLognormalClosedForm(t *testing.T) {
 		if res.Reliability[i].Reliability > res.Reliability[i-1].Reliability {
 			t.Fatalf("R(N) rises at %g", res.Reliability[i].Cycles)
 		}
+	}
+}
+
+// TestFatigueLifeModeMatchesLife: simulate's fatigue_life mode and the life
+// run count the same failures within the design life for the same seed
+// (they draw the same samples), for a spectrum on the EN 1993-1-9 curve
+// with an uncertain critical damage sum.
+func TestFatigueLifeModeMatchesLife(t *testing.T) {
+	t.Parallel()
+	s, err := scenario.Example("service-life")
+	if err != nil {
+		t.Fatal(err)
+	}
+	set := montecarlo.Settings{Samples: 60_000, Seed: 11, Workers: 2, ProbabilitiesOnly: true}
+	r, err := montecarlo.Run(context.Background(), &s.Problem, set)
+	if err != nil {
+		t.Fatal(err)
+	}
+	m, ok := r.Mode(model.FatigueLife)
+	if !ok {
+		t.Fatal("fatigue_life not reported")
+	}
+	l, err := montecarlo.RunLife(context.Background(), &s.Problem, s.Life, montecarlo.LifeSettings{Settings: set})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if m.Estimate.Failures != l.DesignFailure.Count || m.Estimate.Failures == 0 {
+		t.Errorf("simulate %d failures, life %d", m.Estimate.Failures, l.DesignFailure.Count)
+	}
+}
+
+// TestSpectrumRules: a one-row spectrum equals constant amplitude, and a
+// spectrum whose ranges all lie below ΔσL of EN 1993-1-9 does no damage
+// (reference-data-2 A4: M20, C = 0.2, 20 kN range → 16.3 MPa < ΔσL; here a
+// 0.5 kN range on an M12).
+func TestSpectrumRules(t *testing.T) {
+	t.Parallel()
+	src, _ := scenario.ExampleSource("service-life")
+	base := string(src)
+	spec := base[strings.Index(base, "  spectrum:"):strings.Index(base, "fatigue:")]
+	one := strings.Replace(base, spec, "  spectrum: [{level: 1, cycles: 7}]\n\n", 1)
+	one = strings.Replace(one, "  critical_damage: wirsching   # log-normal Miner sum, median 1, c.o.v. 0.3\n", "", 1)
+	ca := strings.Replace(one, "  spectrum: [{level: 1, cycles: 7}]\n", "", 1)
+	low := strings.Replace(base, spec, "  spectrum: [{max: 5.5 kN, min: 5 kN, cycles: 10}, {max: 5.2 kN, min: 5 kN, cycles: 10}]\n\n", 1)
+	set := montecarlo.LifeSettings{Settings: montecarlo.Settings{Samples: 20_000, Seed: 2, Workers: 2}}
+	runs := map[string]*montecarlo.LifeResult{}
+	for name, doc := range map[string]string{"one row": one, "constant": ca, "below cut-off": low} {
+		s, err := scenario.Parse(name, []byte(doc))
+		if err != nil {
+			t.Fatalf("%s: %v", name, err)
+		}
+		r, err := montecarlo.RunLife(context.Background(), &s.Problem, s.Life, set)
+		if err != nil {
+			t.Fatal(err)
+		}
+		runs[name] = r
+	}
+	if !runs["one row"].Acc.Equal(runs["constant"].Acc) {
+		t.Error("a one-row spectrum differs from constant amplitude")
+	}
+	if r := runs["below cut-off"]; r.EverFails.Count != 0 {
+		t.Errorf("%d samples fail below the cut-off limit", r.EverFails.Count)
 	}
 }

@@ -108,6 +108,16 @@ func (b *builder) life() error {
 		return b.lifeError(err)
 	}
 	s.Life = spec
+	s.Problem.Life = spec
+	// The life's own draws, per bolt: the EN 1993-1-9 life scatter (a
+	// standard normal) and an uncertain critical damage sum.
+	if curve == montecarlo.CurveEN1993 {
+		z, _ := montecarlo.NewNormal(0, 1)
+		s.Problem.Vars = append(s.Problem.Vars, montecarlo.Var{Name: "fatigue.life_scatter", Dist: z, Role: montecarlo.PerBolt, Aux: montecarlo.AuxLifeScatter})
+	}
+	if d := spec.Critical; d != nil && spec.Spectrum() && d.Kind != montecarlo.Fixed {
+		s.Problem.Vars = append(s.Problem.Vars, montecarlo.Var{Name: "fatigue.critical_damage", Dist: *d, Role: montecarlo.PerBolt, Aux: montecarlo.AuxCriticalDamage})
+	}
 	return nil
 }
 
