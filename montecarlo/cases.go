@@ -65,8 +65,13 @@ func casesActive(p *Problem, nom *model.Outcome) *model.Outcome {
 	return &u
 }
 
+// fatigueModes are checked in the first load case only: the service case,
+// whose loads the spectrum's levels scale; the static modes in every case.
+const fatigueModes = model.ModeSet(1<<model.Fatigue | 1<<model.FatigueLife)
+
 // evalCases is Eval for a problem with load cases: each sample is
-// evaluated in every case; a mode fails when it fails in any case. With
+// evaluated in every case; a static mode fails when it fails in any case,
+// the fatigue modes are those of the first case. With
 // Detail the safety factors and clamp forces are the least over the cases,
 // the bolt forces the largest; with Margins each component's margin is the
 // least over the cases. The residual preload is the least over the cases.
@@ -95,7 +100,7 @@ func (e *Evaluator) evalCases(rows []float64, n int, o *Out, want Want) {
 				}
 				br := &bolts[b]
 				model.EvaluateBolt(&e.in, &e.stiff, k.set, br)
-				if e.lc != nil {
+				if e.lc != nil && ci == 0 {
 					e.lifeMode(br)
 				}
 				invalid = invalid || br.Invalid
@@ -104,6 +109,9 @@ func (e *Evaluator) evalCases(rows []float64, n int, o *Out, want Want) {
 					if br.Active[m] && model.Failed(br.Capacity[m], br.Demand[m]) {
 						f |= 1 << m
 					}
+				}
+				if ci > 0 {
+					f &^= fatigueModes
 				}
 				fail |= f
 				if nb > 1 {
@@ -155,8 +163,8 @@ func (e *Evaluator) caseDetail(o *Out, j, nm, nb int, first bool) {
 		copy(c0[:], cl)
 	}
 	e.detail(o, j, nm, nb)
-	for i := range nm {
-		if v := o.SF[j*nm+i]; math.IsNaN(v) || sf[i] < v {
+	for i, m := range e.k.modes {
+		if v := o.SF[j*nm+i]; math.IsNaN(v) || sf[i] < v || fatigueModes.Has(m) {
 			o.SF[j*nm+i] = sf[i]
 		}
 	}
@@ -185,6 +193,14 @@ func (e *Evaluator) caseMargins(g []float64, invalid, first bool) {
 	for i := range g {
 		if prev[i] < g[i] || math.IsNaN(prev[i]) {
 			g[i] = prev[i]
+		}
+	}
+	nbm := len(e.k.boltModes)
+	for b := range e.bolts {
+		for i, m := range e.k.boltModes {
+			if fatigueModes.Has(m) {
+				g[b*nbm+i] = prev[b*nbm+i]
+			}
 		}
 	}
 }

@@ -39,7 +39,7 @@ func writeCases(w io.Writer, cases []CaseDoc) {
 	for i, c := range cases {
 		names[i] = c.Name
 	}
-	fmt.Fprintf(w, "\nLoad cases (%s): every mode checked in each case; the table above is all cases together (a mode fails when it fails in any case)\n", strings.Join(names, ", "))
+	fmt.Fprintf(w, "\nLoad cases (%s): static modes checked in each case, fatigue and fatigue_life in the first (the service case); the table above is all cases together (a mode fails when it fails in any case)\n", strings.Join(names, ", "))
 	tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', tabwriter.AlignRight)
 	fmt.Fprintf(tw, "  mode\t%s\t\n", strings.Join(names, "\t"))
 	for i, m := range cases[0].Modes {

@@ -92,7 +92,7 @@ func SimulationReview(s *scenario.Scenario, doc SimDoc, figs []Figure, prov Prov
 	r.Sections = append(r.Sections, Section{Heading: "Failure probabilities", Table: probTable(doc.Modes), Paragraphs: para})
 	if len(doc.Cases) > 0 {
 		r.Sections = append(r.Sections, Section{Heading: "Load cases", Table: casesTable(doc.Cases),
-			Paragraphs: []string{"Every mode is checked in every load case; the probabilities above are for all cases together (a mode fails when it fails in any case)."}})
+			Paragraphs: []string{"The static modes are checked in every load case, fatigue and fatigue_life in the first (the service case, whose loads the spectrum scales); the probabilities above are for all cases together (a mode fails when it fails in any case)."}})
 	}
 	if len(doc.Percentiles) > 0 {
 		head := []string{"quantity"}

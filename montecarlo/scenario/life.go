@@ -128,19 +128,20 @@ func (b *builder) lifeError(err error) error {
 	if !errors.As(err, &re) {
 		return b.p.errf(b.lineOf("fatigue.curve"), "fatigue.curve", "", "%v", err)
 	}
-	field := "fatigue.curve"
+	field, value := "fatigue.curve", b.s.Sources["fatigue.curve"]
+	if n, _, ok, _ := b.p.scalar(b.r, "fatigue.curve"); ok {
+		value = n
+	}
 	switch {
 	case re.Row > 0:
-		field = fmt.Sprintf("loads.spectrum[%d].cycles", re.Row)
+		field, value = fmt.Sprintf("loads.spectrum[%d].cycles", re.Row), units.Sig(re.Value, 4)
 	case re.Param == "nominal life":
+		field, value = "loads.axial_max", b.fmt(b.in.AxialMax, units.Force)
 		if _, ok := b.r.vals["loads.spectrum"]; ok {
-			field = "loads.spectrum"
-		} else {
-			field = "loads.axial_max"
+			field, value = "loads.spectrum", ""
 		}
 	}
-	value := units.Sig(re.Value, 4)
-	return b.p.errf(b.lineOf(field), field, value, "outside the validity range of fatigue.curve (%s: %s): allowed %s", re.Curve, re.Param, re.Allowed)
+	return b.p.errf(b.lineOf(field), field, value, "outside the validity range of the curve (%s): %s = %s, allowed %s", re.Curve, re.Param, units.Sig(re.Value, 4), re.Allowed)
 }
 
 // designLife reads fatigue.design_life: a number of cycles (2e6, "2e6
