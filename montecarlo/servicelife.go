@@ -10,6 +10,7 @@ import (
 
 	"boltrisk/model"
 	"boltrisk/model/fatigue"
+	"boltrisk/montecarlo/interval"
 	"boltrisk/montecarlo/life"
 	"boltrisk/montecarlo/rng"
 )
@@ -341,6 +342,20 @@ type LifeSettings struct {
 	BLives []float64
 	// Grid of the R(N) curve (default life.DefaultGrid).
 	Grid life.Grid
+	// RareBelow: when fewer lives than this fail within the design life,
+	// the probability is estimated again on the fatigue_life mode by
+	// importance sampling (subset simulation when it fails), with the same
+	// budget and seed and a c.o.v. target of 10 % unless Precision is set
+	// (0: never).
+	RareBelow int64
+}
+
+// RareDesign is the rare-event estimate of P(failure within the design
+// life).
+type RareDesign struct {
+	Method, Note string
+	Estimate     interval.Estimate
+	Evaluations  int64
 }
 
 // BLifeEstimate is a B_p life with its one-sided distribution-free bounds.
@@ -371,7 +386,9 @@ type LifeResult struct {
 	Resolution       float64 // ratio of neighbouring grid points
 	Partial          bool
 	Elapsed          time.Duration
-	NominalLife      float64 // nominal inputs, median curve, D_crit = 1
+	NominalLife      float64     // nominal inputs, median curve, D_crit = 1
+	Rare             *RareDesign // with LifeSettings.RareBelow and few failures
+	RareError        string      // why the rare-event estimate failed ("" if it did not)
 	Acc              *life.Accumulator
 	Evaluations      int64
 	GridMin, GridMax float64
@@ -547,7 +564,31 @@ func RunLife(ctx context.Context, p *Problem, spec *LifeSpec, s LifeSettings) (*
 		}
 		res.BLives = append(res.BLives, e)
 	}
+	if !interrupted && res.DesignFailure.Count < s.RareBelow {
+		rs := s.Settings
+		rs.Method, rs.Modes, rs.ProbabilitiesOnly, rs.Progress = Importance, []model.Mode{model.FatigueLife}, true, nil
+		if rs.Precision == 0 {
+			rs.Precision = 0.1
+		}
+		r, err := Estimate(ctx, &q, rs)
+		if err != nil && !errors.Is(err, ErrInterrupted) {
+			rs.Method = Subset // no design point or unhealthy weights
+			r, err = Estimate(ctx, &q, rs)
+		}
+		switch {
+		case errors.Is(err, ErrInterrupted):
+			interrupted = true
+		case err != nil:
+			res.RareError = err.Error()
+		default:
+			if m, ok := r.Mode(model.FatigueLife); ok {
+				res.Rare = &RareDesign{Method: r.Method, Note: r.MethodNote, Estimate: m.Estimate, Evaluations: r.Evaluations}
+				res.Evaluations += r.Evaluations
+			}
+		}
+	}
 	res.Elapsed = time.Since(start)
+	res.Partial = interrupted
 	if interrupted {
 		return res, fmt.Errorf("%w after %d samples: %v", ErrInterrupted, res.Samples+res.Invalid, context.Cause(ctx))
 	}

@@ -50,6 +50,11 @@ type LifeDoc struct {
 	// FailureWithinDesignLife is P(life ≤ design life), exact count with a
 	// two-sided Clopper–Pearson interval.
 	FailureWithinDesignLife LifeProbDoc `json:"failure_within_design_life"`
+	// RareEstimate is the design-life probability estimated again by a
+	// rare-event method (importance sampling or subset simulation, or crude
+	// when auto found the budget enough) on the fatigue_life mode, when
+	// few samples failed within the design life.
+	RareEstimate *RareLifeDoc `json:"rare_estimate,omitempty"`
 	// EverFails is the probability of a finite life (a sample above the
 	// endurance limit).
 	EverFails LifeProbDoc `json:"ever_fails"`
@@ -62,6 +67,17 @@ type LifeDoc struct {
 	Reliability []ReliabilityPointDoc `json:"reliability"`
 	Warnings    []string              `json:"warnings"`
 	Caution     string                `json:"caution"`
+}
+
+// RareLifeDoc is a rare-event estimate of P(failure within the design life).
+type RareLifeDoc struct {
+	Method      string   `json:"method" jsonschema:"enum=crude,enum=importance,enum=subset"`
+	MethodNote  string   `json:"method_note,omitempty"`
+	Probability float64  `json:"probability"`
+	COV         *float64 `json:"cov" jsonschema:"nullable"`
+	CILow       float64  `json:"ci_low"`
+	CIHigh      float64  `json:"ci_high"`
+	Evaluations int64    `json:"evaluations"`
 }
 
 // LifeCurveDoc names the curve.
@@ -176,6 +192,10 @@ func Life(s *scenario.Scenario, r *montecarlo.LifeResult, requested int64, versi
 	if spec.Curve == montecarlo.CurveEN1993 {
 		doc.Curve.LifeSDLog10 = spec.LifeSD
 	}
+	if rr := r.Rare; rr != nil {
+		e := rr.Estimate
+		doc.RareEstimate = &RareLifeDoc{Method: rr.Method, MethodNote: rr.Note, Probability: e.P, COV: finite(e.COV), CILow: e.Lo, CIHigh: e.Hi, Evaluations: rr.Evaluations}
+	}
 	if spec.Curve == montecarlo.CurveVDI2230 {
 		doc.Curve.Rolling = spec.Rolling.String()
 	}
@@ -215,7 +235,10 @@ func Life(s *scenario.Scenario, r *montecarlo.LifeResult, requested int64, versi
 	if r.Invalid > 0 {
 		doc.Warnings = append(doc.Warnings, fmt.Sprintf("%d samples lie outside the model's or the curve's domain and are not counted", r.Invalid))
 	}
-	if r.DesignFailure.Count == 0 {
+	if r.RareError != "" {
+		doc.Warnings = append(doc.Warnings, "the rare-event estimate of the design-life probability failed: "+r.RareError)
+	}
+	if r.DesignFailure.Count == 0 && r.Rare == nil {
 		doc.Warnings = append(doc.Warnings, fmt.Sprintf("no sample failed within the design life: only the upper bound %.3g informs; a smaller probability needs more samples (about 3/p for p)", r.DesignFailure.Upper))
 	}
 	return doc
@@ -263,6 +286,14 @@ func WriteLife(w io.Writer, s *scenario.Scenario, doc LifeDoc, sys units.System)
 	p := doc.FailureWithinDesignLife
 	fmt.Fprintf(w, "  P(fatigue failure within the design life) = %.4g   %g %% interval %.4g … %.4g (Clopper–Pearson), %d of %d\n",
 		p.Probability, conf, p.CILow, p.CIHigh, p.Failures, p.Samples)
+	if rr := doc.RareEstimate; rr != nil {
+		cov := "-"
+		if rr.COV != nil {
+			cov = fmt.Sprintf("%.3g", *rr.COV)
+		}
+		fmt.Fprintf(w, "  few failures: estimated again by %s on the fatigue_life mode: %.4g, c.o.v. %s, %g %% interval %.4g … %.4g, %d evaluations\n",
+			methodName(rr.Method), rr.Probability, cov, conf, rr.CILow, rr.CIHigh, rr.Evaluations)
+	}
 	e := doc.EverFails
 	fmt.Fprintf(w, "  P(finite life at all)                      = %.4g   %g %% interval %.4g … %.4g\n", e.Probability, conf, e.CILow, e.CIHigh)
 	tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', tabwriter.AlignRight)
@@ -351,6 +382,15 @@ func LifeReview(s *scenario.Scenario, doc LifeDoc, figs []Figure, prov Provenanc
 	return r
 }
 
+func rareLine(doc LifeDoc) string {
+	rr := doc.RareEstimate
+	if rr == nil {
+		return "The estimator is crude Monte Carlo: lives counted exactly on a log-cycle grid."
+	}
+	return fmt.Sprintf("Few samples failed within the design life: estimated again by %s on the fatigue_life mode, %.4g (%g %% interval %.4g … %.4g, %d evaluations).",
+		methodName(rr.Method), rr.Probability, 100*doc.Confidence, rr.CILow, rr.CIHigh, rr.Evaluations)
+}
+
 // LifeSection is the review-report section of a service-life result.
 func LifeSection(doc LifeDoc, sys units.System) Section {
 	conf := 100 * doc.Confidence
@@ -358,6 +398,7 @@ func LifeSection(doc LifeDoc, sys units.System) Section {
 	para := []string{
 		fmt.Sprintf("Curve %s: %s. Rule: %s.", doc.Curve.Key, doc.Curve.Source, doc.Curve.Rule),
 		fmt.Sprintf("Design life %.4g cycles. Probability of fatigue failure within it: %.4g (%g %% Clopper–Pearson interval %.4g … %.4g; %d of %d samples).", doc.DesignLife.Cycles, p.Probability, conf, p.CILow, p.CIHigh, p.Failures, p.Samples),
+		rareLine(doc),
 		"B-life bounds are one-sided and distribution-free (order statistics of the simulated lives), at most one grid step conservative.",
 	}
 	if len(doc.Spectrum) > 0 {
