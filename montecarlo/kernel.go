@@ -107,6 +107,9 @@ func NewKernel(p *Problem, modes []model.Mode) (*Kernel, error) {
 	}
 	pos := make([]int, len(p.Vars)) // index within its group
 	for i, v := range p.Vars {
+		if v.Case > len(p.Cases) || v.Aux > numAux || v.Case < 0 || v.Aux < 0 {
+			return nil, fmt.Errorf("montecarlo: input %q is bound to load case %d or draw %d, which the problem does not have", v.Name, v.Case, v.Aux)
+		}
 		if v.Field == nil && v.Case == 0 && v.Aux == 0 {
 			return nil, fmt.Errorf("montecarlo: input %q has no field binding", v.Name)
 		}

@@ -6,7 +6,9 @@ import (
 	"strings"
 	"text/tabwriter"
 
+	"boltrisk/model/units"
 	"boltrisk/montecarlo"
+	"boltrisk/montecarlo/scenario"
 )
 
 // CaseDoc is the estimate of each mode in one load case (loads.cases):
@@ -66,4 +68,31 @@ func casesTable(cases []CaseDoc) *Table {
 		t.Rows = append(t.Rows, row)
 	}
 	return t
+}
+
+// caseInputs documents the values of the load cases (loads.cases.NAME.KEY):
+// axial loads always, shear and temperature change when given.
+func caseInputs(s *scenario.Scenario, sys units.System) []InputDoc {
+	var out []InputDoc
+	keys := [montecarlo.NumCaseSlots]string{"axial_max", "axial_min", "shear", "temperature_change"}
+	dims := [montecarlo.NumCaseSlots]units.Dim{units.Force, units.Force, units.Force, units.TempDiff}
+	for _, c := range s.Problem.Cases {
+		for slot, key := range keys {
+			path := "loads.cases." + c.Name + "." + key
+			v, unc := s.Uncertain(path)
+			if slot >= 2 && c.Values[slot] == 0 && !unc {
+				continue
+			}
+			dim := dims[slot]
+			f := func(x float64) string { return sys.Format(x, dim) }
+			d := InputDoc{Path: path, Label: c.Name + ": " + strings.ReplaceAll(key, "_", " "), Dimension: dim.Key(), Unit: internalUnit(dim),
+				Nominal: c.Values[slot], Display: f(c.Values[slot])}
+			if unc {
+				d.Distribution = distDoc(&v.Dist)
+				d.Display = v.Dist.Describe(f)
+			}
+			out = append(out, d)
+		}
+	}
+	return out
 }

@@ -158,7 +158,7 @@ func Inputs(s *scenario.Scenario, sys units.System) []InputDoc {
 		}
 		out = append(out, d)
 	}
-	return out
+	return append(out, caseInputs(s, sys)...)
 }
 
 // Joint documents the joint's description.
