@@ -107,6 +107,16 @@ func TestRunLifeLognormalClosedForm(t *testing.T) {
 			t.Fatalf("R(N) rises at %g", res.Reliability[i].Cycles)
 		}
 	}
+	// At long lives R(N) meets the endurance-limit mode: with the same
+	// samples, the lives that never end are exactly the samples the mode
+	// 'fatigue' (criterion amplitude, σASV) does not fail.
+	sim, err := montecarlo.Run(context.Background(), &s.Problem, montecarlo.Settings{Samples: n, Seed: 7, Workers: 2, ProbabilitiesOnly: true, Modes: []model.Mode{model.Fatigue}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if f := sim.Modes[0].Estimate.Failures; f != res.EverFails.Count {
+		t.Errorf("fatigue mode fails %d samples, finite lives %d", f, res.EverFails.Count)
+	}
 }
 
 // TestFatigueLifeModeMatchesLife: simulate's fatigue_life mode and the life
@@ -168,5 +178,48 @@ func TestSpectrumRules(t *testing.T) {
 	}
 	if r := runs["below cut-off"]; r.EverFails.Count != 0 {
 		t.Errorf("%d samples fail below the cut-off limit", r.EverFails.Count)
+	}
+}
+
+// TestShigleyLoadLineLife is reference-data-2 A2's worked check through the
+// joint mechanics (computed there from Shigley 9th ed. Eqs. 6-13…6-16, 8-39,
+// 8-41, Goodman 6-46; confirmed formulas, invented case): M12 10.9 with
+// At = 84.3 mm², Sut = 1040, Se = 162 MPa, C = 0.25, Fi = 52.477 kN
+// (σi = 622.5 MPa), P = 0 → 50 kN: σa = 74.140, σm = 696.640, σrev =
+// 224.562 MPa, N = 2.505·10⁵ cycles with f from the Fig. 6-18 fit
+// (0.79464); P = 0 → 20 kN gives σrev = 79.52 < Se: infinite life.
+func TestShigleyLoadLineLife(t *testing.T) {
+	t.Parallel()
+	s, err := scenario.Parse("a2.yaml", []byte(`bolt: {thread: M12, class: "10.9", length: 60 mm}
+members:
+  layers:
+    - {thickness: 20 mm, material: steel}
+    - {thickness: 20 mm, material: steel}
+tightening: {method: preload, preload: 52477 N, tool: tension-controlled}
+loads: {axial_max: 50 kN}
+fatigue: {endurance: 162 MPa}
+`))
+	if err != nil {
+		t.Fatal(err)
+	}
+	in := *s.Inputs()
+	in.Thread.StressArea = 84.3
+	in.Tensile, in.Endurance = 1040, 162
+	kb := model.ComputeStiffness(&in).Kb
+	in.MemberStiffness = 3 * kb // C = kb/(kb + km) = 0.25
+	if c := model.ComputeStiffness(&in).C; math.Abs(c-0.25) > 1e-12 {
+		t.Fatalf("C = %g", c)
+	}
+	spec := &montecarlo.LifeSpec{Curve: montecarlo.CurveShigley, DesignLife: 1e6}
+	n, err := spec.NominalLife(&in)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if math.Abs(n/2.505e5-1) > 5e-4 { // the reference gives 4 digits
+		t.Errorf("N = %.5g cycles, reference 2.505e5", n)
+	}
+	in.AxialMax = 20e3
+	if n, err := spec.NominalLife(&in); err != nil || !math.IsInf(n, 1) {
+		t.Errorf("P = 20 kN: N = %g (%v), want infinite life", n, err)
 	}
 }
