@@ -74,3 +74,34 @@ func TestLifeNeedsCurve(t *testing.T) {
 		t.Errorf("exit %d, %s", code, errs)
 	}
 }
+
+// TestSimulateWithCasesAndLife: simulate on the service-life example (load
+// cases, a spectrum, a curve) writes a document valid against the simulate
+// schema, with the per-case probabilities and the fatigue_life mode.
+func TestSimulateWithCasesAndLife(t *testing.T) {
+	code, out, errs := runCLI("simulate", "--example", "service-life", "--samples", "20000", "--method", "crude", "--quiet", "--json")
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errs)
+	}
+	validate(t, compile(t, "simulate"), "simulate document", []byte(out))
+	var doc struct {
+		Modes []struct{ Key string } `json:"modes"`
+		Cases []struct {
+			Name  string
+			Modes []struct{ Key string } `json:"modes"`
+		} `json:"cases"`
+	}
+	if err := json.Unmarshal([]byte(out), &doc); err != nil {
+		t.Fatal(err)
+	}
+	if len(doc.Cases) != 3 || doc.Cases[1].Name != "pressure-test" || len(doc.Cases[0].Modes) != len(doc.Modes) {
+		t.Errorf("cases %+v", doc.Cases)
+	}
+	found := false
+	for _, m := range doc.Modes {
+		found = found || m.Key == "fatigue_life"
+	}
+	if !found {
+		t.Error("fatigue_life not reported")
+	}
+}
