@@ -149,6 +149,9 @@ func Inputs(s *scenario.Scenario, sys units.System) []InputDoc {
 	var out []InputDoc
 	in := s.Inputs()
 	for _, f := range s.Shown() {
+		if caseHeld(s, f.Path) {
+			continue
+		}
 		d := InputDoc{Path: f.Path, Label: f.Label, Dimension: f.Dim.Key(), Unit: internalUnit(f.Dim),
 			Nominal: *scenario.FieldPtr(in, f.Path), PerBolt: f.Role&montecarlo.PerBolt != 0,
 			Source: s.Sources[f.Path], Display: s.Describe(f.Path, sys)}
