@@ -152,24 +152,18 @@ func (e *Evaluator) caseDetail(o *Out, j, nm, nb int, first bool) {
 		e.detail(o, j, nm, nb)
 		return
 	}
-	var sf [model.NumModes]float64
-	copy(sf[:nm], o.SF[j*nm:(j+1)*nm])
+	prev := e.caseBuf
+	sf, f0, c0 := prev[:nm], prev[nm:nm+nb], prev[nm+nb:nm+2*nb]
+	copy(sf, o.SF[j*nm:(j+1)*nm])
 	bf := o.BoltForce[j*nb : (j+1)*nb]
 	cl := o.Clamp[j*nb : (j+1)*nb]
-	var f0, c0 [4]float64 // small joints keep the previous forces on the stack
-	big := nb > len(f0)
-	if !big {
-		copy(f0[:], bf)
-		copy(c0[:], cl)
-	}
+	copy(f0, bf)
+	copy(c0, cl)
 	e.detail(o, j, nm, nb)
 	for i, m := range e.k.modes {
 		if v := o.SF[j*nm+i]; math.IsNaN(v) || sf[i] < v || fatigueModes.Has(m) {
 			o.SF[j*nm+i] = sf[i]
 		}
-	}
-	if big { // the forces of this case replace the earlier ones: keep the worst bolt-wise below
-		return
 	}
 	for b := range nb {
 		bf[b] = math.Max(bf[b], f0[b])
@@ -177,18 +171,15 @@ func (e *Evaluator) caseDetail(o *Out, j, nm, nb int, first bool) {
 	}
 }
 
-// caseMargins merges the margins of one case: the least over the cases.
+// caseMargins merges the margins of one case: the least over the cases
+// (the fatigue components keep the first case's).
 func (e *Evaluator) caseMargins(g []float64, invalid, first bool) {
 	if first {
 		e.margins(g, invalid)
 		return
 	}
-	var prev [64]float64
-	if len(g) > len(prev) {
-		e.margins(g, invalid) // very large joints: the last case only (documented limit)
-		return
-	}
-	copy(prev[:], g)
+	prev := e.caseBuf[:len(g)]
+	copy(prev, g)
 	e.margins(g, invalid)
 	for i := range g {
 		if prev[i] < g[i] || math.IsNaN(prev[i]) {

@@ -74,3 +74,35 @@ func indexOf(r *montecarlo.Result, m montecarlo.ModeResult) int {
 	}
 	return -1
 }
+
+// TestLoadCasesDetail: with a harder second case the sampled bolt force is
+// the larger of the cases' (here always the proof-test case's) and the
+// clamp force the smaller: their percentiles equal a run of that case alone
+// (same draws).
+func TestLoadCasesDetail(t *testing.T) {
+	t.Parallel()
+	src, _ := scenario.ExampleSource("cover-flange")
+	base := strings.Replace(strings.Split(string(src), "variants:")[0], "axial_max: {dist: normal, mean: 16 kN, cov: 10%}", "axial_max: 16 kN", 1)
+	two := strings.Replace(base, "  axial_min: 0 kN ", "  cases: [{name: operation}, {name: proof-test, axial_max: 22 kN}]\n  axial_min: 0 kN ", 1)
+	proof := strings.Replace(base, "axial_max: 16 kN", "axial_max: 22 kN", 1)
+	run := func(doc string) *montecarlo.Result {
+		s, err := scenario.Parse("x.yaml", []byte(doc))
+		if err != nil {
+			t.Fatal(err)
+		}
+		r, err := montecarlo.Run(context.Background(), &s.Problem, montecarlo.Settings{Samples: 40_000, Seed: 9, Workers: 2})
+		if err != nil {
+			t.Fatal(err)
+		}
+		return r
+	}
+	a, b := run(two), run(proof)
+	for _, q := range []montecarlo.Quantity{montecarlo.QBoltForce, montecarlo.QClamp} {
+		pa, pb := a.Quantities[q].Percentiles, b.Quantities[q].Percentiles
+		for i := range pa {
+			if pa[i].Value != pb[i].Value {
+				t.Errorf("%s percentile %d: cases %g, proof-test alone %g", q.Key(), i, pa[i].Value, pb[i].Value)
+			}
+		}
+	}
+}

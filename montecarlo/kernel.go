@@ -378,6 +378,7 @@ type Evaluator struct {
 	boltBuf   [4]model.BoltResult // backing store for small joints, inside the evaluator
 	out       model.Outcome
 	caseVals  []float64 // the load cases' sampled values (len(cases)·NumCaseSlots)
+	caseBuf   []float64 // the previous cases' detail or margins of a sample
 	lc        *lifeCurves
 	aux       [numAux]float64 // the service life's own draws
 	_         [64]byte        // keep other goroutines' data off these cache lines
@@ -391,6 +392,8 @@ func (k *Kernel) NewEvaluator() *Evaluator {
 		for ci, c := range k.cases {
 			copy(e.caseVals[ci*NumCaseSlots:], c.Values[:])
 		}
+		n := max(len(k.modes)+2*k.nBolts, k.Components())
+		e.caseBuf = make([]float64, n, n+8)
 	}
 	if k.life != nil {
 		e.lc, _ = newLifeCurves(k.life, &k.base) // checked by NewKernel
