@@ -110,6 +110,7 @@ type tally struct {
 	fail                  [model.NumModes]int64
 	boltFail              [model.NumModes]int64
 	boltSamples           int64
+	cs                    caseTally // per load case (none without cases)
 }
 
 func (t *tally) merge(o *tally) {
@@ -118,6 +119,7 @@ func (t *tally) merge(o *tally) {
 	t.binned += o.binned
 	t.any += o.any
 	t.boltSamples += o.boltSamples
+	t.cs.merge(&o.cs)
 	for m := range t.fail {
 		t.fail[m] += o.fail[m]
 		t.boltFail[m] += o.boltFail[m]
@@ -128,6 +130,9 @@ func (t *tally) merge(o *tally) {
 // (first the sample number off of the chunk, which picks the bolt whose
 // forces are binned). The preload sums go to s.
 func (t *tally) add(o *Out, n, nb int, sk *sketches, off int, s *sums) {
+	if o.CaseFail != nil {
+		t.cs.add(o, n, len(o.CaseFail)/len(o.Invalid))
+	}
 	if nb == 1 && sk == nil {
 		t.addOne(o, n, s)
 		return
@@ -424,6 +429,7 @@ func (res *Result) fill(t *tally, k *Kernel, s *sums, method interval.Method) {
 		}
 		res.Modes = append(res.Modes, mr)
 	}
+	res.fillCases(&t.cs, k, t.samples, method)
 	if s.n > 0 {
 		res.PreloadMean = s.sum / s.n
 		res.PreloadSD = math.Sqrt(math.Max(s.ssq/s.n-res.PreloadMean*res.PreloadMean, 0))

@@ -139,3 +139,16 @@ func TestPlainTicksReadable(t *testing.T) {
 		}
 	}
 }
+
+func TestReliabilityPlotPNG(t *testing.T) {
+	t.Parallel()
+	s := ReliabilitySpec{Title: "R", N: []float64{1e5, 1e6, 1e7}, R: []float64{1, 0.6, 0.02}, Lo: []float64{0.99, 0.58, 0.01}, Hi: []float64{1, 0.62, 0.03}, DesignLife: 2e6}
+	p, err := ReliabilityPlot(s)
+	if err != nil {
+		t.Fatal(err)
+	}
+	checkPNG(t, p)
+	if _, err := ReliabilityPlot(ReliabilitySpec{N: []float64{1}}); err == nil {
+		t.Error("one point accepted")
+	}
+}

@@ -77,6 +77,7 @@ var modeStyles = map[string][3]int{ // colour, dashes, marker
 	"thread_stripping": {cSky, 1, gBox},
 	"head_pressure":    {cGrey, 5, gPlus},
 	"fatigue":          {cOrange, 4, gDiamond},
+	"fatigue_life":     {cOrange, 2, gSquare},
 	"bolt_shear":       {cBlue, 1, gDiamond},
 	"bolt_bearing":     {cVermillion, 2, gCircle},
 	"plate_bearing":    {cGreen, 3, gSquare},

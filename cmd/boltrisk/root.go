@@ -131,6 +131,7 @@ the torque, tolerance and lubrication that make it safe.
 		newSimulateCmd(stdout, stderr, nil),
 		newSweepCmd(stdout, stderr, nil),
 		newCompareCmd(stdout, stderr, nil),
+		newLifeCmd(stdout, stderr, nil),
 		newCatalogCmd(stdout),
 		newExampleCmd(stdout),
 		newSchemaCmd(stdout),

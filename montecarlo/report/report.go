@@ -36,7 +36,7 @@ const SchemaVersion = 2
 // Envelope is what every JSON document starts with.
 type Envelope struct {
 	SchemaVersion int    `json:"schema_version"`
-	Kind          string `json:"kind" jsonschema:"enum=nominal,enum=simulate,enum=sweep,enum=spread-limit,enum=compare,enum=fit"`
+	Kind          string `json:"kind" jsonschema:"enum=nominal,enum=simulate,enum=sweep,enum=spread-limit,enum=compare,enum=fit,enum=life"`
 	ToolVersion   string `json:"tool_version"`
 }
 
@@ -158,6 +158,9 @@ func Inputs(s *scenario.Scenario, sys units.System) []InputDoc {
 	var out []InputDoc
 	in := s.Inputs()
 	for _, f := range s.Shown() {
+		if caseHeld(s, f.Path) {
+			continue
+		}
 		d := InputDoc{Path: f.Path, Label: f.Label, Dimension: f.Dim.Key(), Unit: internalUnit(f.Dim),
 			Nominal: *scenario.FieldPtr(in, f.Path), PerBolt: f.Role&montecarlo.PerBolt != 0,
 			Source: s.Sources[f.Path], Display: s.Describe(f.Path, sys)}
@@ -168,7 +171,7 @@ func Inputs(s *scenario.Scenario, sys units.System) []InputDoc {
 		d.Data = dataDoc(s, f.Path, sys)
 		out = append(out, d)
 	}
-	return out
+	return append(out, caseInputs(s, sys)...)
 }
 
 // Joint documents the joint's description.

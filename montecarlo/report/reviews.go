@@ -90,6 +90,10 @@ func SimulationReview(s *scenario.Scenario, doc SimDoc, figs []Figure, prov Prov
 		para = append(para, "Method: "+doc.MethodNote+".")
 	}
 	r.Sections = append(r.Sections, Section{Heading: "Failure probabilities", Table: probTable(doc.Modes), Paragraphs: para})
+	if len(doc.Cases) > 0 {
+		r.Sections = append(r.Sections, Section{Heading: "Load cases", Table: casesTable(doc.Cases),
+			Paragraphs: []string{"The static modes are checked in every load case, fatigue and fatigue_life in the first (the service case, whose loads the spectrum scales); the probabilities above are for all cases together (a mode fails when it fails in any case)."}})
+	}
 	if len(doc.Percentiles) > 0 {
 		head := []string{"quantity"}
 		for _, l := range doc.PercentileLevels {

@@ -15,6 +15,7 @@ var Documents = map[string]any{
 	"sweep":    SweepDoc{},
 	"compare":  CompareDoc{},
 	"fit":      FitDoc{},
+	"life":     LifeDoc{},
 }
 
 // GenerateSchemas returns the JSON Schema of every document (reflected from

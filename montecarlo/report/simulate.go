@@ -86,9 +86,11 @@ type SimDoc struct {
 	BoltsPerSample   int     `json:"bolt_evaluations_per_sample"`
 	// BinnedSamples is the number of samples behind the percentiles: every
 	// sample, or those of one chunk in BinStride in a large run.
-	BinnedSamples    int64            `json:"binned_samples"`
-	BinStride        int64            `json:"bin_stride"`
-	Modes            []ProbDoc        `json:"modes"` // reported modes in report order, then "any"
+	BinnedSamples int64     `json:"binned_samples"`
+	BinStride     int64     `json:"bin_stride"`
+	Modes         []ProbDoc `json:"modes"` // reported modes in report order, then "any"
+	// Cases are the per-load-case probabilities (files with loads.cases).
+	Cases            []CaseDoc        `json:"cases,omitempty"`
 	PercentileLevels []float64        `json:"percentile_levels"`
 	Percentiles      []PercentilesDoc `json:"percentiles"`
 	// PercentileSource says where the percentiles come from: "every
@@ -170,6 +172,7 @@ func Simulation(s *scenario.Scenario, r *montecarlo.Result, run Run, version str
 		}
 	}
 	doc.PercentileSource = percentileSource(r)
+	doc.Cases = caseDocs(r)
 	if r.Rare != nil {
 		doc.DesignPoints, doc.Diagnostics = rareDocs(r.Rare)
 		doc.Warnings = append(doc.Warnings, r.Rare.Warnings...)
@@ -390,6 +393,7 @@ func WriteSimulation(w io.Writer, s *scenario.Scenario, doc SimDoc, sys units.Sy
 		}
 		tw.Flush()
 	}
+	writeCases(w, doc.Cases)
 	if len(doc.DesignPoints) > 0 {
 		writeDesignPoints(w, doc.DesignPoints, sys)
 	}

@@ -61,6 +61,8 @@ var sectionKeys = func() map[string][]string {
 		"service":    {},
 		"study":      {"samples", "seed", "confidence", "precision", "target_probability", "target"},
 	}
+	keys["fatigue"] = append(keys["fatigue"], lifeFatigueKeys...)
+	keys["loads"] = append(keys["loads"], lifeLoadKeys...)
 	for k, v := range nestedKeys {
 		keys[k] = append([]string(nil), v...)
 	}

@@ -64,6 +64,9 @@ type Scenario struct {
 	Roughness float64
 	// Data lists the inputs fitted to test data at load time (data.go).
 	Data []DataSource
+	// Life is the service-life problem (fatigue.curve, fatigue.design_life,
+	// loads.spectrum); nil when the file gives no curve.
+	Life *montecarlo.LifeSpec
 	// given holds the registry paths the file sets.
 	given map[string]bool
 

@@ -1,6 +1,7 @@
 package scenario
 
 import (
+	"maps"
 	"sort"
 	"strings"
 
@@ -75,6 +76,7 @@ func wordKeys() map[string]keyKind {
 // two cannot drift apart.
 func Schema() map[string]any {
 	words := wordKeys()
+	maps.Copy(words, lifeWordKeys())
 	props := func(section string) map[string]any {
 		out := map[string]any{}
 		for _, k := range sectionKeys[section] {
