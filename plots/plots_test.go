@@ -152,3 +152,30 @@ func TestReliabilityPlotPNG(t *testing.T) {
 		t.Error("one point accepted")
 	}
 }
+
+func TestCycleLabels(t *testing.T) {
+	for _, c := range []struct {
+		v    float64
+		want string
+	}{{2.113e7, "2.11e7"}, {1e9, "1e9"}, {9e6, "9e6"}, {1.5e5, "1.5e5"}, {900, "900"}} {
+		if got := cycles(c.v); got != c.want {
+			t.Errorf("cycles(%g) = %q, want %q", c.v, got, c.want)
+		}
+	}
+}
+
+// The unreliability view draws 1 − R(N) on a log axis with the B-lives.
+func TestUnreliabilityPlot(t *testing.T) {
+	s := ReliabilitySpec{Title: "t", N: []float64{1e5, 1e6, 1e7}, R: []float64{1, 0.99, 0.5}, Lo: []float64{0.999, 0.98, 0.45}, Hi: []float64{1, 0.995, 0.55},
+		DesignLife: 2e6, Marks: []LifeMark{{Label: "B1", N: 1e6, R: 0.99}}, Unreliability: true}
+	p, err := ReliabilityPlot(s)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !(p.Y.Min > 0) || p.Y.Max != 1 {
+		t.Errorf("log axis %g … %g, want (0, 1]", p.Y.Min, p.Y.Max)
+	}
+	if _, err := PNG(p); err != nil {
+		t.Fatal(err)
+	}
+}

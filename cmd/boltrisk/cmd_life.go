@@ -109,12 +109,12 @@ func runLife(ctx context.Context, opts *LifeOptions) error {
 	opts.Run.timing(opts.ErrOut, res.Evaluations, res.Elapsed)
 	doc := report.Life(s, res, set.Samples, toolVersion())
 	if opts.Output.Dir != "" {
-		fig, err := report.LifeFigure(s, res)
+		figs, err := report.LifeFigures(s, res)
 		if err != nil {
 			return err
 		}
 		ss := []*scenario.Scenario{s}
-		rev := report.LifeReview(s, doc, []report.Figure{fig}, opts.Output.provenance(ss, res.Seed, set.Samples, res.Samples, res.Workers), sys)
+		rev := report.LifeReview(s, doc, figs, opts.Output.provenance(ss, res.Seed, set.Samples, res.Samples, res.Workers), sys)
 		if err := opts.Output.write(rev, ss, opts.ErrOut, opts.Run.Quiet); err != nil {
 			return err
 		}

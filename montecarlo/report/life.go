@@ -338,9 +338,10 @@ func WriteLife(w io.Writer, s *scenario.Scenario, doc LifeDoc, sys units.System)
 // bName writes a B-life's percentage: 10, 1, 0.1.
 func bName(p float64) string { return strings.TrimSuffix(fmt.Sprintf("%g", 100*p), ".0") }
 
-// LifeFigure draws R(N) with its confidence band on a log-cycles axis, the
-// design life marked.
-func LifeFigure(s *scenario.Scenario, r *montecarlo.LifeResult) (Figure, error) {
+// LifeFigures draw R(N) with its confidence band on a log-cycles axis, the
+// design life and the B-lives marked, and the same as 1 − R(N) on a log
+// probability axis (when any sample failed).
+func LifeFigures(s *scenario.Scenario, r *montecarlo.LifeResult) ([]Figure, error) {
 	spec := plots.ReliabilitySpec{Title: "Reliability against cycles (" + titleOf(s) + ")", DesignLife: r.Spec.DesignLife}
 	lo, hi := -1, -1
 	for i, p := range r.Reliability {
@@ -361,12 +362,31 @@ func LifeFigure(s *scenario.Scenario, r *montecarlo.LifeResult) (Figure, error) 
 		spec.Lo = append(spec.Lo, p.Lower)
 		spec.Hi = append(spec.Hi, p.Upper)
 	}
+	for _, b := range r.BLives {
+		if b.Status == life.Reached {
+			spec.Marks = append(spec.Marks, plots.LifeMark{Label: "B" + bName(b.P), N: b.Cycles, R: 1 - b.P})
+		}
+	}
 	p, err := plots.ReliabilityPlot(spec)
 	if err != nil {
-		return Figure{}, err
+		return nil, err
 	}
-	caption := fmt.Sprintf("R(N), the probability of surviving N cycles, with its %g %% Clopper–Pearson band; the dashed line marks the design life.", 100*r.Confidence)
-	return figure(p, "reliability.png", caption)
+	caption := fmt.Sprintf("R(N), the probability of surviving N cycles, with its %g %% Clopper–Pearson band; the dashed line marks the design life, the markers the B-lives.", 100*r.Confidence)
+	rel, err := figure(p, "reliability.png", caption)
+	if err != nil {
+		return nil, err
+	}
+	figs := []Figure{rel}
+	spec.Unreliability = true
+	spec.Title = "Probability of failure against cycles (" + titleOf(s) + ")"
+	if p, err := plots.ReliabilityPlot(spec); err == nil { // none when nothing failed
+		f, err := figure(p, "unreliability.png", fmt.Sprintf("The same curve as the probability of failure by N cycles, 1 − R(N), on a log axis, so that the early failures around the design life show; %g %% band.", 100*r.Confidence))
+		if err != nil {
+			return nil, err
+		}
+		figs = append(figs, f)
+	}
+	return figs, nil
 }
 
 // LifeReview assembles the design-review document of a service-life run.
