@@ -65,7 +65,11 @@ type PartState struct {
 	Any, Binned          int64
 	BoltSamples          int64
 	Fail, BoltFail       [model.NumModes]int64
-	BinStride            int64
+	// CaseFail and CaseAny count failures per load case (none without
+	// cases).
+	CaseFail  [][model.NumModes]int64
+	CaseAny   []int64
+	BinStride int64
 	// Chunks holds the floating sums of each chunk of the block, in order.
 	Chunks []ChunkSum
 	// Sketches: the quantities', then each reported mode's (empty without
@@ -184,6 +188,7 @@ func RunPart(ctx context.Context, p *Problem, s Settings, part, n int) (*PartSta
 	}
 	st.Samples, st.Invalid, st.Any, st.Binned, st.BoltSamples = t.samples, t.invalid, t.any, t.binned, t.boltSamples
 	st.Fail, st.BoltFail = t.fail, t.boltFail
+	st.CaseFail, st.CaseAny = t.cs.fail, t.cs.any
 	if sk != nil {
 		merged := sk.empty()
 		for _, w := range workers {
@@ -268,8 +273,11 @@ func MergeParts(ctx context.Context, p *Problem, s Settings, parts []*PartState)
 		if pt.MethodNote != first.MethodNote {
 			return nil, fmt.Errorf("parts %d and %d resolved the method differently", first.Part, pt.Part)
 		}
+		if len(pt.CaseFail) != len(pt.CaseAny) || (pt.CaseFail != nil && len(pt.CaseFail) != len(first.CaseFail)) {
+			return nil, fmt.Errorf("part %d of %d counts %d load cases, part %d %d", pt.Part, n, len(pt.CaseFail), first.Part, len(first.CaseFail))
+		}
 		t.merge(&tally{samples: pt.Samples, invalid: pt.Invalid, any: pt.Any, binned: pt.Binned, boltSamples: pt.BoltSamples,
-			fail: pt.Fail, boltFail: pt.BoltFail})
+			fail: pt.Fail, boltFail: pt.BoltFail, cs: caseTally{fail: pt.CaseFail, any: pt.CaseAny}})
 		for _, c := range pt.Chunks {
 			total.add(sums{c.N, c.Sum, c.SSQ})
 		}

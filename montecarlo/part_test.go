@@ -31,9 +31,17 @@ func TestPartsMergeExactly(t *testing.T) {
 		{"three parts", 70_000, 3, true},
 		{"seven parts", 100_003, 7, true},
 		{"more parts than chunks", 40_000, 5, false},
+		{"load cases", 50_000, 3, true},
 	} {
 		t.Run(tc.name, func(t *testing.T) {
 			t.Parallel()
+			s := s
+			if tc.name == "load cases" {
+				var err error
+				if s, err = scenario.Example("service-life"); err != nil {
+					t.Fatal(err)
+				}
+			}
 			set := montecarlo.Settings{Samples: tc.samples, Seed: 11, Workers: 2, ProbabilitiesOnly: !tc.binned}
 			one, err := montecarlo.Run(context.Background(), &s.Problem, set)
 			if err != nil {

@@ -350,7 +350,8 @@ func runRare(ctx context.Context, k *Kernel, s Settings, m Method) (*Result, err
 	case Importance:
 		rs, err = rare.Importance(ctx, p, importanceSettings(s, prec))
 	default:
-		rs, err = rare.Subset(ctx, p, &rare.SubsetSettings{Seed: s.Seed, Workers: s.Workers, Precision: prec, Confidence: s.Confidence})
+		rs, err = rare.Subset(ctx, p, &rare.SubsetSettings{Seed: s.Seed, Workers: s.Workers, Precision: prec, Confidence: s.Confidence,
+			Runs: s.Repeats, MaxRuns: max(s.Repeats, rare.DefaultMaxRuns)})
 	}
 	if err != nil && len(rs) == 0 {
 		if errors.Is(err, context.Canceled) || ctx.Err() != nil {

@@ -62,6 +62,7 @@ func TestMergeContract(t *testing.T) {
 		{7, []string{"sweep", file, "--vary", "load=0.5..2", "--steps", "3", "--samples", "120000", "--method", "auto"}, nil},
 		{3, []string{"simulate", "--example", "cover-flange", "--samples", "6000", "--seed", "4", "--method", "importance"}, []string{"--fixed-samples"}},
 		{7, []string{"simulate", file, "--samples", "3001", "--method", "importance"}, []string{"--fixed-samples"}},
+		{3, []string{"simulate", "--example", "service-life", "--samples", "40000", "--method", "crude"}, nil},
 	} {
 		t.Run(fmt.Sprintf("%d parts %s", tc.n, tc.args[1]), func(t *testing.T) {
 			if testing.Short() && tc.n != 3 {

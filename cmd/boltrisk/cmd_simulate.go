@@ -129,7 +129,14 @@ func writeSimulationReview(ctx context.Context, opts *SimulateOptions, s *scenar
 		if err != nil {
 			return err
 		}
-		figs = append(append(figs, pf), sf...)
+		ex, err := report.ExceedanceFigures(s, res, set.Interval)
+		if err != nil {
+			return err
+		}
+		figs = append(figs, pf)
+		for i := range sf { // each mode's histogram beside its lower tail
+			figs = append(figs, sf[i], ex[i])
+		}
 	}
 	if opts.LoadCurve != "" && !res.Partial {
 		lset := set

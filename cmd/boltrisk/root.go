@@ -131,9 +131,11 @@ the torque, tolerance and lubrication that make it safe.
 		newSimulateCmd(stdout, stderr, nil),
 		newSweepCmd(stdout, stderr, nil),
 		newCompareCmd(stdout, stderr, nil),
+		newLifeCmd(stdout, stderr, nil),
 		newCatalogCmd(stdout),
 		newExampleCmd(stdout),
 		newSchemaCmd(stdout),
+		newFitCmd(stdout, stderr, nil),
 		newMergeCmd(stdout, stderr), newClusterScriptCmd(stdout), newRankCmd(stdout, stderr),
 	)
 	return root

@@ -100,7 +100,11 @@ type PartStep struct {
 	// Failures and BoltFailures count by mode key (modes with none left out).
 	Failures     map[string]int64 `json:"failures"`
 	BoltFailures map[string]int64 `json:"bolt_failures"`
-	BinStride    int64            `json:"bin_stride"`
+	// CaseFailures and CaseAny count failures per load case, in the
+	// scenario's order (absent without load cases).
+	CaseFailures []map[string]int64 `json:"case_failures,omitempty"`
+	CaseAny      []int64            `json:"case_any,omitempty"`
+	BinStride    int64              `json:"bin_stride"`
 	// ChunkSums holds each chunk's count, sum and sum of squares of the
 	// residual preload, in N (exact decimal of the float64).
 	ChunkSums [][3]float64 `json:"chunk_sums"`
@@ -216,6 +220,16 @@ func partStep(st *montecarlo.PartState) PartStep {
 	for i, c := range st.Chunks {
 		ps.ChunkSums[i] = [3]float64{c.N, c.Sum, c.SSQ}
 	}
+	for ci := range st.CaseFail {
+		m := map[string]int64{}
+		for mode, n := range st.CaseFail[ci] {
+			if n != 0 {
+				m[model.Mode(mode).Key()] = n
+			}
+		}
+		ps.CaseFailures = append(ps.CaseFailures, m)
+	}
+	ps.CaseAny = st.CaseAny
 	for _, c := range st.Rare {
 		rc := PartRareChunk{Samples: c.Samples, Evaluations: c.Evaluations, Invalid: c.Invalid, Failed: []int64{}}
 		buf := binary.LittleEndian.AppendUint64(nil, math.Float64bits(c.InvalidW))
@@ -361,6 +375,21 @@ func (d *PartDoc) States() ([]*montecarlo.PartState, error) {
 		}
 		for j, c := range ps.ChunkSums {
 			st.Chunks[j] = montecarlo.ChunkSum{N: c[0], Sum: c[1], SSQ: c[2]}
+		}
+		if len(ps.CaseFailures) != len(ps.CaseAny) {
+			return nil, fmt.Errorf("step %d: failures of %d load cases but any-mode counts of %d", i+1, len(ps.CaseFailures), len(ps.CaseAny))
+		}
+		if len(ps.CaseAny) > 0 {
+			st.CaseFail, st.CaseAny = make([][model.NumModes]int64, len(ps.CaseAny)), ps.CaseAny
+			for ci, m := range ps.CaseFailures {
+				for k, n := range m {
+					mode, ok := model.ParseMode(k)
+					if !ok {
+						return nil, fmt.Errorf("step %d, load case %d: unknown mode %q", i+1, ci+1, k)
+					}
+					st.CaseFail[ci][mode] = n
+				}
+			}
 		}
 		for j, c := range ps.ImportanceChunks {
 			raw, err := base64.StdEncoding.DecodeString(c.Sums)

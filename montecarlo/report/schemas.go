@@ -16,6 +16,8 @@ var Documents = map[string]any{
 	"rank":     RankDoc{},
 	"sweep":    SweepDoc{},
 	"compare":  CompareDoc{},
+	"fit":      FitDoc{},
+	"life":     LifeDoc{},
 }
 
 // GenerateSchemas returns the JSON Schema of every document (reflected from
