@@ -31,14 +31,14 @@ func BenchmarkMerge1000Parts(b *testing.B) {
 		b.Fatal(err)
 	}
 	dir := b.TempDir()
-	set := montecarlo.Settings{Samples: samples, Seed: 1, Confidence: 0.95, Method: montecarlo.Auto}.WithDefaults()
+	set := montecarlo.Settings{Samples: samples, Seed: 1, Confidence: 0.95, Method: montecarlo.Crude}.WithDefaults()
 	var size int64
 	for k := 1; k <= n; k++ {
 		st, err := montecarlo.RunPart(context.Background(), &src.Scenario.Problem, set, k, n)
 		if err != nil {
 			b.Fatal(err)
 		}
-		data, err := report.EncodePart(report.NewPartDoc("simulate", src, set, "auto", []*montecarlo.PartState{st}, nil, toolVersion()))
+		data, err := report.EncodePart(report.NewPartDoc("simulate", src, set, "crude", []*montecarlo.PartState{st}, nil, toolVersion()))
 		if err != nil {
 			b.Fatal(err)
 		}
@@ -57,7 +57,7 @@ func BenchmarkMerge1000Parts(b *testing.B) {
 	})
 	b.Run("one-machine", func(b *testing.B) {
 		for range b.N {
-			if code, _, errs := runCLI("simulate", "--example", "cover-flange", "--samples", fmt.Sprint(samples), "--json", "--quiet"); code != 0 {
+			if code, _, errs := runCLI("simulate", "--example", "cover-flange", "--samples", fmt.Sprint(samples), "--method", "crude", "--json", "--quiet"); code != 0 {
 				b.Fatal(errs)
 			}
 		}
