@@ -1,6 +1,9 @@
 package model
 
-import "math"
+import (
+	"math"
+	"math/bits"
+)
 
 // TighteningMethod selects how the assembly preload is obtained.
 type TighteningMethod uint8
@@ -228,9 +231,12 @@ func (b *BoltResult) Failures(set ModeSet) ModeSet {
 }
 
 func failures(set ModeSet, active *[NumModes]bool, capacity, demand *[NumModes]float64) ModeSet {
+	// Called per bolt and sample by the estimators: visits only the set's
+	// bits, and the index check lets the compiler drop the bounds checks.
 	var f ModeSet
-	for m := range NumModes {
-		if set.Has(m) && active[m] && Failed(capacity[m], demand[m]) {
+	for s := set; s != 0; s &= s - 1 {
+		m := bits.TrailingZeros32(uint32(s))
+		if m < int(NumModes) && active[m] && Failed(capacity[m], demand[m]) {
 			f |= 1 << m
 		}
 	}
@@ -324,7 +330,9 @@ func EvaluateBolt(in *Inputs, s *Stiffness, set ModeSet, b *BoltResult) {
 	case NutFactorMethod:
 		fm = in.Torque / (in.NutFactor * th.D)
 		if torsion {
-			mg = fm * in.threadTorqueRatio()
+			// threadTorqueRatio with the levers of the stiffness.
+			mu := max((in.NutFactor*th.D-s.lead)*s.invLever, 0)
+			mg = fm * (s.lead + s.threadLever*mu)
 		}
 		invalid = !(in.NutFactor > 0)
 	case FrictionMethod:
@@ -368,18 +376,16 @@ func EvaluateBolt(in *Inputs, s *Stiffness, set ModeSet, b *BoltResult) {
 	b.Active[Separation] = pmax > 0
 	b.Active[Fatigue] = pmax > pmin
 	if torsion {
-		d0 := in.StressDiameter()
-		d03 := d0 * d0 * d0
 		// Assembly: σred = √(σ² + 3τ²) against Rp0.2, σ = FM/As, τ = MG/Wp with the
 		// fully plastic Wp = π·d0³/12 — the basis of VDI 2230-1's permissible
 		// assembly preload FMzul (its factor 3/2) at utilisation ν = 1.
-		sig, tau := fm*s.invAs, mg*(12/math.Pi)/d03
+		sig, tau := fm*s.invAs, mg*s.invWpPlastic
 		b.Demand[AssemblyYield] = math.Sqrt(sig*sig + 3*tau*tau)
 		b.Capacity[AssemblyYield] = in.Yield
 		// Service: tension Fb/As with residual torsion kτ·MG/Wp, Wp = π·d0³/16
 		// elastic (VDI 2230-1 working-stress check).
 		sig = fb * s.invAs
-		tau = in.TorsionFactor * mg * (16 / math.Pi) / d03
+		tau = in.TorsionFactor * mg * s.invWpElastic
 		b.Demand[ServiceYield] = math.Sqrt(sig*sig + 3*tau*tau)
 		b.Capacity[ServiceYield] = in.Yield
 	}

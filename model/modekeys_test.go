@@ -24,6 +24,7 @@ var handChecks = map[string][]string{
 	"thread_stripping": {"TestThreadStrippingM10InAluminium", "TestThreadShearAreas"},
 	"head_pressure":    {"TestHeadPressure"},
 	"fatigue":          {"TestGoodmanGerberASME", "TestGoodmanWithLoads", "TestSeparatedJoint"},
+	"fatigue_life":     {"TestFatigueLifeVDI"},
 	"bolt_shear":       {"TestShearEN1993", "TestShearAISC360", "TestShearYieldRule", "TestLongJointEN1993", "TestLongJointAISC360"},
 	"bolt_bearing":     {"TestShearYieldRule"},
 	"plate_bearing":    {"TestShearEN1993", "TestInnerBoltsEN1993", "TestEdgeAndInnerColumnsEN1993", "TestShearAISC360"},

@@ -16,6 +16,7 @@ const (
 	ThreadStripping             // bolt force reaches the stripping force of the engaged threads (tapped hole or nut)
 	HeadPressure                // pressure under head, nut or washer reaches the limiting surface pressure
 	Fatigue                     // alternating stress reaches the strength amplitude on the load line
+	FatigueLife                 // the finite fatigue life under the load spectrum reaches the design life
 	BoltShear                   // shear on the bolt cross-section reaches its shear strength
 	BoltBearing                 // bearing pressure on the bolt reaches its yield
 	PlateBearing                // bearing pressure on the plate reaches its capacity
@@ -66,6 +67,8 @@ var modeTable = [NumModes]ModeInfo{
 		"max(FM, Fb)/Ap under head, nut or washer, Ap = π/4·(D² − dh²), reaches the limiting surface pressure pG", "VDI 2230-1 Table A9"},
 	Fatigue: {"fatigue", "Fatigue", units.Stress, PerBolt,
 		"strength amplitude on the preload load line (Goodman, Gerber, ASME-elliptic or plain amplitude) reaches σa of the bolt force over the cycle, Φ(Pmax − Pmin)/(2As) while closed", "Shigley Eqs. 8-38, 8-45 to 8-47"},
+	FatigueLife: {"fatigue_life", "Fatigue within the design life", units.None, PerBolt,
+		"life N = (Σ n_i)/(Σ n_i/N_i)·D_crit on the curve of fatigue.curve under the repeated spectrum reaches the design life", "Palmgren–Miner; Shigley Eqs. 6-13…6-16, VDI 2230-1 σASZ or EN 1993-1-9 detail 14"},
 	BoltShear: {"bolt_shear", "Bolt shear", units.Force, PerJoint,
 		"shear on the shank (πd²/4) or, with threads in the plane, the root area reaches the shear strength (long joints reduced)", "plate.resistance rule"},
 	BoltBearing: {"bolt_bearing", "Bolt bearing", units.Force, PerJoint,

@@ -171,6 +171,13 @@ type Stiffness struct {
 	// Thread stripping in a tapped hole: shear areas of the external and
 	// internal thread over the engaged length, mm².
 	shearExt, shearInt float64
+	// The torque–preload terms (torqueTerms) and the torsion moduli of the
+	// stress diameter d0: the thread lever, 1/(thread + head lever), and
+	// 1/Wp for the fully plastic (π·d0³/12) and elastic (π·d0³/16) cases.
+	// Thread, bearing face and hole feed the stiffness, so they are fixed
+	// whenever the stiffness is.
+	lead, threadLever, invLever float64
+	invWpPlastic, invWpElastic  float64
 }
 
 // ComputeStiffness returns bolt and member stiffness and the joint constant
@@ -202,6 +209,10 @@ func ComputeStiffness(in *Inputs) Stiffness {
 	s := Stiffness{Kb: kb, Km: km, C: c, Phi: n * c, Grip: grip,
 		kz: kz, sepF: 1 / (1 - n*c), invAs: 1 / in.Thread.StressArea}
 	s.Thermal = in.thermalMismatch() * kz // a drawn ΔT multiplies it per sample
+	lead, thread, head := in.torqueTerms()
+	d0 := in.StressDiameter()
+	s.lead, s.threadLever, s.invLever = lead, thread, 1/(thread+head)
+	s.invWpPlastic, s.invWpElastic = 12/math.Pi/(d0*d0*d0), 16/math.Pi/(d0*d0*d0)
 	if in.NLayers > 0 && (in.Layers[0].PressureLimit > 0 || in.Layers[in.NLayers-1].PressureLimit > 0 || in.Washer.PressureLimit > 0 || in.NutWasher.PressureLimit > 0) {
 		s.pressInvArea, s.pressLimit = in.governingFace()
 	}

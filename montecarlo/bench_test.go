@@ -30,3 +30,16 @@ func BenchmarkR1(b *testing.B) {
 	}
 	b.ReportMetric(float64(total)/b.Elapsed().Seconds(), "samples/s")
 }
+
+// BenchmarkChunkCoverFlange times one worker on chunks of the cover-flange
+// example (8 bolts, each drawing its own torque, nut factor and endurance;
+// the shared load), all five active modes, binning as a 5·10⁶-sample run
+// does: the per-sample cost of the multi-bolt kernel. Divide ns/sample by 8
+// for the cost per bolt evaluation (shared/bench/goloop8 prints its own).
+func BenchmarkChunkCoverFlange(b *testing.B) {
+	s, err := scenario.Example("cover-flange")
+	if err != nil {
+		b.Fatal(err)
+	}
+	montecarlo.BenchChunks(b, &s.Problem, nil, montecarlo.BinStride(5e6))
+}

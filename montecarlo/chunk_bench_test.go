@@ -31,18 +31,18 @@ func r1Problem(tb testing.TB) *Problem {
 // per-sample cost of the kernel and the crude tally without scheduling.
 // Compare variants with -count 10 and benchstat.
 func BenchmarkChunkR1(b *testing.B) {
-	benchChunks(b, r1Problem(b), []model.Mode{model.Proof, model.Separation, model.Fatigue})
+	benchChunks(b, r1Problem(b), []model.Mode{model.Proof, model.Separation, model.Fatigue}, binStride(1e7))
 }
 
 // BenchmarkChunkR1All is BenchmarkChunkR1 with all five active modes.
-func BenchmarkChunkR1All(b *testing.B) { benchChunks(b, r1Problem(b), nil) }
+func BenchmarkChunkR1All(b *testing.B) { benchChunks(b, r1Problem(b), nil, binStride(1e7)) }
 
-func benchChunks(b *testing.B, p *Problem, modes []model.Mode) {
+func benchChunks(b *testing.B, p *Problem, modes []model.Mode, stride int64) {
 	k, err := NewKernel(p, modes)
 	if err != nil {
 		b.Fatal(err)
 	}
-	w := newCrudeWorker(k, pilot(k, 1), binStride(1e7))
+	w := newCrudeWorker(k, pilot(k, 1), stride)
 	b.ReportAllocs()
 	c := int64(0)
 	for b.Loop() {

@@ -46,6 +46,12 @@ type Settings struct {
 	Precision float64
 	// Method selects the estimator of Estimate (Run is always crude).
 	Method Method
+	// Repeats is the number of independent subset-simulation runs per
+	// round, whose spread gives its c.o.v. (0: rare.DefaultRuns, 20).
+	Repeats int
+	// FixedSamples makes importance sampling draw exactly Samples (no
+	// precision stop), as the parts of a split run do.
+	FixedSamples bool
 	// Interval selects the interval of each probability (default Auto:
 	// exact below 20 failures, Wilson above, one-sided when none failed).
 	Interval interval.Method
@@ -76,6 +82,9 @@ func (s *Settings) Validate() error {
 	if s.Workers < 0 || s.Workers > 1024 {
 		return fmt.Errorf("workers must lie within 1 … 1024 (0 for all cores), got %d", s.Workers)
 	}
+	if s.Repeats != 0 && (s.Repeats < 2 || s.Repeats > 10000) {
+		return fmt.Errorf("repeats (independent subset-simulation runs) must lie within 2 … 10000, got %d", s.Repeats)
+	}
 	return nil
 }
 
@@ -104,6 +113,7 @@ type tally struct {
 	fail                  [model.NumModes]int64
 	boltFail              [model.NumModes]int64
 	boltSamples           int64
+	cs                    caseTally // per load case (none without cases)
 }
 
 func (t *tally) merge(o *tally) {
@@ -112,6 +122,7 @@ func (t *tally) merge(o *tally) {
 	t.binned += o.binned
 	t.any += o.any
 	t.boltSamples += o.boltSamples
+	t.cs.merge(&o.cs)
 	for m := range t.fail {
 		t.fail[m] += o.fail[m]
 		t.boltFail[m] += o.boltFail[m]
@@ -122,6 +133,9 @@ func (t *tally) merge(o *tally) {
 // (first the sample number off of the chunk, which picks the bolt whose
 // forces are binned). The preload sums go to s.
 func (t *tally) add(o *Out, n, nb int, sk *sketches, off int, s *sums) {
+	if o.CaseFail != nil {
+		t.cs.add(o, n, len(o.CaseFail)/len(o.Invalid))
+	}
 	if nb == 1 && sk == nil {
 		t.addOne(o, n, s)
 		return
@@ -418,6 +432,7 @@ func (res *Result) fill(t *tally, k *Kernel, s *sums, method interval.Method) {
 		}
 		res.Modes = append(res.Modes, mr)
 	}
+	res.fillCases(&t.cs, k, t.samples, method)
 	if s.n > 0 {
 		res.PreloadMean = s.sum / s.n
 		res.PreloadSD = math.Sqrt(math.Max(s.ssq/s.n-res.PreloadMean*res.PreloadMean, 0))

@@ -19,9 +19,11 @@ const (
 	Triangular
 	Weibull
 	TruncNormal
+	StudentT // posterior predictive of normal data (dist_t.go)
+	LogT     // posterior predictive of lognormal data: ln X Student t (dist_t.go)
 )
 
-var kindNames = [...]string{"fixed", "normal", "lognormal", "uniform", "triangular", "weibull", "truncnormal"}
+var kindNames = [...]string{"fixed", "normal", "lognormal", "uniform", "triangular", "weibull", "truncnormal", "student-t", "log-t"}
 
 func (k Kind) String() string { return kindNames[k] }
 
@@ -55,8 +57,10 @@ type Dist struct {
 	//   Triangular: A = lower, B = upper, C = mode
 	//   Weibull: A = shape k, B = scale λ
 	//   TruncNormal: A = μ, B = σ of the parent normal, C = lower, D = upper
+	//   StudentT: A = location, B = scale, C = d.o.f.; LogT: the same of ln X
 	A, B, C, D float64
 	pLo, pHi   float64 // TruncNormal: Φ at the bounds
+	tab        *tTable // StudentT, LogT: the map from a standard normal (dist_t.go)
 }
 
 func finite(vs ...float64) bool {
@@ -162,7 +166,9 @@ func NewTruncNormal(mean, sd, lo, hi float64) (Dist, error) {
 
 // NeedsNormal reports whether samples are drawn from a standard normal
 // variate (true) or from a uniform one (false).
-func (d *Dist) NeedsNormal() bool { return d.Kind == Normal || d.Kind == LogNormal }
+func (d *Dist) NeedsNormal() bool {
+	return d.Kind == Normal || d.Kind == LogNormal || d.Kind == StudentT || d.Kind == LogT
+}
 
 // FromNormal maps a standard normal variate z to a sample.
 // Valid for Normal and LogNormal; others go through Φ(z).
@@ -174,6 +180,8 @@ func (d *Dist) FromNormal(z float64) float64 {
 		return math.Exp(d.A + d.B*z)
 	case Fixed:
 		return d.A
+	case StudentT, LogT:
+		return d.tSample(d.tFromNormal(z))
 	}
 	return d.FromUniform(0.5 * math.Erfc(-z/math.Sqrt2))
 }
@@ -198,6 +206,8 @@ func (d *Dist) FromUniform(u float64) float64 {
 		return math.Min(math.Max(x, d.C), d.D)
 	case Normal, LogNormal:
 		return d.FromNormal(mathext.NormalQuantile(u))
+	case StudentT, LogT:
+		return d.tSample(d.tFromUniform(u))
 	}
 	return d.A
 }
@@ -233,6 +243,8 @@ func (d *Dist) Mean() float64 {
 		// E[X] = μ + σ·(φ(α) − φ(β))/(Φ(β) − Φ(α))
 		a, b := (d.C-d.A)/d.B, (d.D-d.A)/d.B
 		return d.A + d.B*(distuv.UnitNormal.Prob(a)-distuv.UnitNormal.Prob(b))/(d.pHi-d.pLo)
+	case StudentT, LogT:
+		return d.tMean()
 	}
 	return d.distuvOf().Mean()
 }
@@ -249,6 +261,8 @@ func (d *Dist) StdDev() float64 {
 		t := (a*pa - b*pb) / z
 		m := (pa - pb) / z
 		return d.B * math.Sqrt(1+t-m*m)
+	case StudentT, LogT:
+		return d.tStdDev()
 	}
 	return d.distuvOf().StdDev()
 }
@@ -258,7 +272,7 @@ func (d *Dist) Quantile(p float64) float64 {
 	switch d.Kind {
 	case Fixed:
 		return d.A
-	case TruncNormal:
+	case TruncNormal, StudentT, LogT:
 		return d.FromUniform(p)
 	}
 	return d.distuvOf().Quantile(p)
@@ -280,6 +294,8 @@ func (d *Dist) CDF(x float64) float64 {
 			return 1
 		}
 		return (distuv.UnitNormal.CDF((x-d.A)/d.B) - d.pLo) / (d.pHi - d.pLo)
+	case StudentT, LogT:
+		return d.tCDF(x)
 	}
 	return d.distuvOf().CDF(x)
 }
@@ -302,6 +318,8 @@ func (d *Dist) Describe(f func(float64) string) string {
 		return fmt.Sprintf("weibull(shape %.4g, scale %s)", d.A, f(d.B))
 	case TruncNormal:
 		return fmt.Sprintf("truncnormal(mean %s, sd %s, within %s … %s)", f(d.A), f(d.B), f(d.C), f(d.D))
+	case StudentT, LogT:
+		return d.tDescribe(f)
 	}
 	return "?"
 }
@@ -314,10 +332,10 @@ func (d Dist) Shifted(mean float64) (Dist, error) {
 	switch d.Kind {
 	case Fixed:
 		return NewFixed(mean), nil
-	case Normal:
+	case Normal, StudentT:
 		d.A = mean
 		return d, nil
-	case LogNormal:
+	case LogNormal, LogT:
 		if !(mean > 0) {
 			return Dist{}, fmt.Errorf("lognormal: mean must be > 0, got %g", mean)
 		}
@@ -349,9 +367,9 @@ func (d Dist) Multiplied(f float64) (Dist, error) {
 	switch d.Kind {
 	case Fixed:
 		d.A *= f
-	case Normal:
+	case Normal, StudentT:
 		d.A, d.B = d.A*f, d.B*f
-	case LogNormal:
+	case LogNormal, LogT:
 		d.A += math.Log(f)
 	case Uniform:
 		d.A, d.B = d.A*f, d.B*f
@@ -375,7 +393,10 @@ func (d Dist) Scaled(f float64) (Dist, error) {
 	switch d.Kind {
 	case Fixed:
 		return d, nil
-	case Normal:
+	case Normal, StudentT:
+		d.B *= f
+		return d, nil
+	case LogT: // the spread of ln X, the median kept
 		d.B *= f
 		return d, nil
 	case LogNormal:

@@ -41,11 +41,14 @@ type Kernel struct {
 	stiffVaries bool
 	// jointLevel: the joint-level (shear-side) modes must be evaluated.
 	jointLevel bool
-	modes      []model.Mode // reported modes, report order
-	boltModes  []model.Mode // the reported modes decided bolt by bolt
-	jointModes []model.Mode // the reported joint-level modes
+	modes      []model.Mode  // reported modes, report order
+	boltModes  []model.Mode  // the reported modes decided bolt by bolt
+	boltSet    model.ModeSet // the same as a set
+	jointModes []model.Mode  // the reported joint-level modes
 	set        model.ModeSet
 	nominal    model.Nominal
+	cases      []Case    // load cases (none: Base's loads)
+	life       *LifeSpec // service life (nil: no fatigue_life mode)
 }
 
 // item is one uncertain input in its group, laid out for the sampling loop:
@@ -67,9 +70,17 @@ type item struct {
 // NewKernel compiles a problem. modes are the modes to report (each must be
 // active at the nominal values); nil means every active mode.
 func NewKernel(p *Problem, modes []model.Mode) (*Kernel, error) {
-	k := &Kernel{base: p.Base, vars: p.Vars, nBolts: 1}
+	k := &Kernel{base: p.Base, vars: p.Vars, nBolts: 1, cases: p.Cases, life: p.Life}
 	k.nominal = model.EvaluateNominal(&k.base)
+	if p.Life != nil {
+		if err := k.nominalLife(); err != nil {
+			return nil, err
+		}
+	}
 	nom := &k.nominal.Outcome
+	if len(p.Cases) > 0 {
+		nom = casesActive(p, nom)
+	}
 	if modes == nil {
 		for m := range model.NumModes {
 			if nom.Active[m] {
@@ -91,13 +102,17 @@ func NewKernel(p *Problem, modes []model.Mode) (*Kernel, error) {
 	for _, m := range modes {
 		if m.IsBolt() {
 			k.boltModes = append(k.boltModes, m)
+			k.boltSet |= 1 << m
 		} else {
 			k.jointModes = append(k.jointModes, m)
 		}
 	}
 	pos := make([]int, len(p.Vars)) // index within its group
 	for i, v := range p.Vars {
-		if v.Field == nil {
+		if v.Case > len(p.Cases) || v.Aux > numAux || v.Case < 0 || v.Aux < 0 {
+			return nil, fmt.Errorf("montecarlo: input %q is bound to load case %d or draw %d, which the problem does not have", v.Name, v.Case, v.Aux)
+		}
+		if v.Field == nil && v.Case == 0 && v.Aux == 0 {
 			return nil, fmt.Errorf("montecarlo: input %q has no field binding", v.Name)
 		}
 		if !(v.Shared >= 0 && v.Shared < 1) {
@@ -151,6 +166,9 @@ func NewKernel(p *Problem, modes []model.Mode) (*Kernel, error) {
 		k.nBolts = p.Base.Bolts
 	}
 	k.jointLevel = k.jointLevel || p.Base.ShearLoad > 0
+	for _, c := range p.Cases {
+		k.jointLevel = k.jointLevel || c.Values[CaseShear] > 0
+	}
 	return k, nil
 }
 
@@ -310,6 +328,9 @@ type Out struct {
 	Clamp     []float64 // per sample and bolt, N
 	// With Margins: per sample and component (see Kernel.Components).
 	G []float64
+	// With load cases: per sample and case, the reported modes the joint
+	// fails in that case (Fail is their union).
+	CaseFail []model.ModeSet
 }
 
 // NewOut returns outputs for blocks of up to n samples.
@@ -325,6 +346,9 @@ func (k *Kernel) NewOut(n int, want Want) *Out {
 	}
 	if want&Margins != 0 {
 		o.G = make([]float64, n*k.Components())
+	}
+	if len(k.cases) > 0 {
+		o.CaseFail = make([]model.ModeSet, n*len(k.cases))
 	}
 	return o
 }
@@ -355,17 +379,34 @@ type Evaluator struct {
 	bolts     []model.BoltResult
 	boltBuf   [4]model.BoltResult // backing store for small joints, inside the evaluator
 	out       model.Outcome
-	_         [64]byte // keep other goroutines' data off these cache lines
+	caseVals  []float64 // the load cases' sampled values (len(cases)·NumCaseSlots)
+	caseBuf   []float64 // the previous cases' detail or margins of a sample
+	lc        *lifeCurves
+	aux       [numAux]float64 // the service life's own draws
+	_         [64]byte        // keep other goroutines' data off these cache lines
 }
 
 // NewEvaluator returns an evaluator of the kernel.
 func (k *Kernel) NewEvaluator() *Evaluator {
 	e := &Evaluator{k: k, in: k.base}
+	if len(k.cases) > 0 {
+		e.caseVals = make([]float64, len(k.cases)*NumCaseSlots, len(k.cases)*NumCaseSlots+8)
+		for ci, c := range k.cases {
+			copy(e.caseVals[ci*NumCaseSlots:], c.Values[:])
+		}
+		n := max(len(k.modes)+2*k.nBolts, k.Components())
+		e.caseBuf = make([]float64, n, n+8)
+	}
+	if k.life != nil {
+		e.lc, _ = newLifeCurves(k.life, &k.base) // checked by NewKernel
+		e.aux = auxDefaults
+		e.aux[AuxCriticalDamage-1] = k.life.fixedCritical()
+	}
 	for _, it := range k.shared {
-		e.sharedPtr = append(e.sharedPtr, k.vars[it.v].Field(&e.in))
+		e.sharedPtr = append(e.sharedPtr, e.bind(k.vars[it.v]))
 	}
 	for _, it := range k.perBolt {
-		e.boltPtr = append(e.boltPtr, k.vars[it.v].Field(&e.in))
+		e.boltPtr = append(e.boltPtr, e.bind(k.vars[it.v]))
 	}
 	e.allPtr = append(slices.Clip(e.sharedPtr), e.boltPtr...)
 	e.stiff = model.ComputeStiffness(&e.in)
@@ -389,7 +430,11 @@ func setRow(ptrs []*float64, row []float64) {
 // o. It allocates nothing and calls no interface.
 func (e *Evaluator) Eval(rows []float64, n int, o *Out, want Want) {
 	k := e.k
-	if want == 0 && k.nBolts == 1 && k.nParts == 0 && !k.jointLevel && !k.stiffVaries {
+	if len(k.cases) > 0 {
+		e.evalCases(rows, n, o, want)
+		return
+	}
+	if want == 0 && k.nBolts == 1 && k.nParts == 0 && !k.jointLevel && !k.stiffVaries && e.lc == nil {
 		e.evalOne(rows, n, o)
 		return
 	}
@@ -412,13 +457,11 @@ func (e *Evaluator) Eval(rows []float64, n int, o *Out, want Want) {
 			}
 			br := &bolts[b]
 			model.EvaluateBolt(&e.in, &e.stiff, k.set, br)
-			invalid = invalid || br.Invalid
-			var f model.ModeSet
-			for _, m := range k.boltModes {
-				if br.Active[m] && model.Failed(br.Capacity[m], br.Demand[m]) {
-					f |= 1 << m
-				}
+			if e.lc != nil {
+				e.lifeMode(br)
 			}
+			invalid = invalid || br.Invalid
+			f := br.Failures(k.boltSet)
 			fail |= f
 			if nb > 1 {
 				o.BoltFail[j*nb+b] = f
@@ -450,18 +493,12 @@ func (e *Evaluator) Eval(rows []float64, n int, o *Out, want Want) {
 func (e *Evaluator) evalOne(rows []float64, n int, o *Out) {
 	k := e.k
 	d := k.Dim()
-	ptrs, br, modes := e.allPtr[:d], &e.bolts[0], k.boltModes
+	ptrs, br, set := e.allPtr[:d], &e.bolts[0], k.boltSet
 	inv, fail, pre := o.Invalid[:n], o.Fail[:n], o.Preload[:n]
 	for j := range n {
 		setRow(ptrs, rows[j*d:j*d+d])
 		model.EvaluateBolt(&e.in, &e.stiff, k.set, br)
-		var f model.ModeSet
-		for _, m := range modes {
-			if br.Active[m] && model.Failed(br.Capacity[m], br.Demand[m]) {
-				f |= 1 << m
-			}
-		}
-		inv[j], fail[j], pre[j] = br.Invalid, f, br.Preload
+		inv[j], fail[j], pre[j] = br.Invalid, br.Failures(set), br.Preload
 	}
 }
 

@@ -29,6 +29,13 @@ type Var struct {
 	// Field returns the address of the bound field inside in. The runner calls
 	// it once per worker, never per sample.
 	Field func(in *model.Inputs) *float64
+	// Case (1-based) marks the input as a value of load case Case, slot
+	// Slot (see CaseSlot); Field is then unused. 0: an ordinary input.
+	Case int
+	Slot CaseSlot
+	// Aux (1-based) marks a draw of the service life that no model input
+	// holds: AuxLifeScatter or AuxCriticalDamage. Field is then unused.
+	Aux int
 }
 
 // PerBolt reports whether each bolt of the joint draws its own value.
@@ -46,4 +53,9 @@ type Problem struct {
 	Base model.Inputs // nominal values of every input
 	Vars []Var
 	Corr []Correlation
+	// Cases are the named load cases (none: the single loads of Base).
+	Cases []Case
+	// Life is the service-life problem (nil: none); with it the mode
+	// fatigue_life is evaluated.
+	Life *LifeSpec
 }

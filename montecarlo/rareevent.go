@@ -266,28 +266,14 @@ func estimate(ctx context.Context, p *Problem, s Settings) (res *Result, note st
 // sampling when every component's design point is found and the weights
 // stay healthy, else subset simulation.
 func runAuto(ctx context.Context, k *Kernel, s Settings) (*Result, string, error) {
-	prec := s.Precision
-	if prec == 0 {
-		prec = DefaultPrecision
-	}
-	need := 1 / (prec * prec)
-	ps := s
-	ps.Samples, ps.Precision, ps.ProbabilitiesOnly, ps.Progress = min(s.Samples, autoPilot), 0, true, nil
-	pilot, err := runCrude(ctx, k, ps)
+	crude, why, pilot, err := autoCrude(ctx, k, s)
 	if err != nil {
 		return pilot, "", err
 	}
-	expect := pilot.Any.P * float64(s.Samples)
-	if expect >= need || pilot.Samples >= s.Samples {
-		note := fmt.Sprintf("crude Monte Carlo: a pilot of %d samples found %d failures, so the budget of %d samples expects %.0f, at least the %.0f that a c.o.v. of %.3g needs",
-			pilot.Samples, pilot.Any.Failures, s.Samples, expect, need, prec)
-		if pilot.Samples >= s.Samples {
-			note = fmt.Sprintf("crude Monte Carlo: the budget of %d samples is no larger than auto's pilot", s.Samples)
-		}
+	if crude {
 		res, err := runCrude(ctx, k, s)
-		return res, note, err
+		return res, why, err
 	}
-	why := fmt.Sprintf("a pilot of %d crude samples found %d failures, so the budget of %d samples would give about %.0f, fewer than the %.0f that a c.o.v. of %.3g needs", pilot.Samples, pilot.Any.Failures, s.Samples, expect, need, prec)
 	res, err := runRare(ctx, k, s, Importance)
 	if err != nil {
 		return res, "", err
@@ -308,6 +294,33 @@ func runAuto(ctx context.Context, k *Kernel, s Settings) (*Result, string, error
 	}
 	sub, err := runRare(ctx, k, s, Subset)
 	return sub, fmt.Sprintf("subset simulation: %s; importance sampling was not trusted (%s)", why, joinComma(problems)), err
+}
+
+// autoCrude runs auto's crude pilot and reports whether the budget reaches
+// the precision (crude Monte Carlo, with its note) or why not; an
+// interrupted pilot is returned with the error.
+func autoCrude(ctx context.Context, k *Kernel, s Settings) (bool, string, *Result, error) {
+	prec := s.Precision
+	if prec == 0 {
+		prec = DefaultPrecision
+	}
+	need := 1 / (prec * prec)
+	ps := s
+	ps.Samples, ps.Precision, ps.ProbabilitiesOnly, ps.Progress = min(s.Samples, autoPilot), 0, true, nil
+	pilot, err := runCrude(ctx, k, ps)
+	if err != nil {
+		return false, "", pilot, err
+	}
+	expect := pilot.Any.P * float64(s.Samples)
+	if expect >= need || pilot.Samples >= s.Samples {
+		note := fmt.Sprintf("crude Monte Carlo: a pilot of %d samples found %d failures, so the budget of %d samples expects %.0f, at least the %.0f that a c.o.v. of %.3g needs",
+			pilot.Samples, pilot.Any.Failures, s.Samples, expect, need, prec)
+		if pilot.Samples >= s.Samples {
+			note = fmt.Sprintf("crude Monte Carlo: the budget of %d samples is no larger than auto's pilot", s.Samples)
+		}
+		return true, note, pilot, nil
+	}
+	return false, fmt.Sprintf("a pilot of %d crude samples found %d failures, so the budget of %d samples would give about %.0f, fewer than the %.0f that a c.o.v. of %.3g needs", pilot.Samples, pilot.Any.Failures, s.Samples, expect, need, prec), pilot, nil
 }
 
 func joinComma(s []string) string {
@@ -335,10 +348,10 @@ func runRare(ctx context.Context, k *Kernel, s Settings, m Method) (*Result, err
 	var err error
 	switch m {
 	case Importance:
-		rs, err = rare.Importance(ctx, p, &rare.ImportanceSettings{Seed: s.Seed, Workers: s.Workers, Precision: prec,
-			MaxSamples: s.Samples, Confidence: s.Confidence})
+		rs, err = rare.Importance(ctx, p, importanceSettings(s, prec))
 	default:
-		rs, err = rare.Subset(ctx, p, &rare.SubsetSettings{Seed: s.Seed, Workers: s.Workers, Precision: prec, Confidence: s.Confidence})
+		rs, err = rare.Subset(ctx, p, &rare.SubsetSettings{Seed: s.Seed, Workers: s.Workers, Precision: prec, Confidence: s.Confidence,
+			Runs: s.Repeats, MaxRuns: max(s.Repeats, rare.DefaultMaxRuns)})
 	}
 	if err != nil && len(rs) == 0 {
 		if errors.Is(err, context.Canceled) || ctx.Err() != nil {
@@ -346,6 +359,27 @@ func runRare(ctx context.Context, k *Kernel, s Settings, m Method) (*Result, err
 				fmt.Errorf("%w: %v", ErrInterrupted, context.Cause(ctx))
 		}
 		return nil, err
+	}
+	return rareResult(ctx, k, s, m, rs, start)
+}
+
+// importanceSettings are the settings of an importance-sampling run: up
+// to s.Samples samples until the precision is met, or exactly s.Samples
+// with FixedSamples (as the parts of a split run draw).
+func importanceSettings(s Settings, prec float64) *rare.ImportanceSettings {
+	is := &rare.ImportanceSettings{Seed: s.Seed, Workers: s.Workers, Precision: prec, MaxSamples: s.Samples, Confidence: s.Confidence}
+	if s.FixedSamples {
+		is.Samples = s.Samples
+	}
+	return is
+}
+
+// rareResult builds the result of a rare-event run from its per-event
+// results, with the percentiles from a crude pass.
+func rareResult(ctx context.Context, k *Kernel, s Settings, m Method, rs []rare.Result, start time.Time) (*Result, error) {
+	prec := s.Precision
+	if prec == 0 {
+		prec = DefaultPrecision
 	}
 	res := &Result{Method: m.String(), Seed: s.Seed, Workers: s.Workers, Confidence: s.Confidence, Precision: s.Precision,
 		NBolts: k.nBolts, Nominal: k.Nominal(), Rare: &RareInfo{Events: rs}}

@@ -73,9 +73,12 @@ type Result struct {
 	Converged  bool    // the precision target was met
 	Elapsed    time.Duration
 
-	Nominal    model.Nominal // the joint at its nominal inputs
-	Modes      []ModeResult  // modes active at nominal values (or those asked for), report order
-	Any        interval.Estimate
+	Nominal model.Nominal // the joint at its nominal inputs
+	Modes   []ModeResult  // modes active at nominal values (or those asked for), report order
+	Any     interval.Estimate
+	// Cases holds each load case's estimates (crude Monte Carlo only; none
+	// without cases).
+	Cases      []CaseResult
 	Quantities [NumQuantities]Distribution // empty when the run kept no histograms
 	// Mean and standard deviation of the residual preload over all bolts, N.
 	PreloadMean, PreloadSD float64

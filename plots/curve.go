@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"math"
 	"strconv"
+	"strings"
 
 	"gonum.org/v1/plot"
 	"gonum.org/v1/plot/plotter"
@@ -14,6 +15,7 @@ import (
 // Curve is one failure probability against the varied value.
 type Curve struct {
 	Name      string
+	Key       string    // mode key for the style ([ModeStyle]); "" for a series of its own
 	X         []float64 // in the data's units
 	P, Lo, Hi []float64
 	// UpperOnly marks points where no sample failed: only the upper bound
@@ -48,7 +50,6 @@ func CurvePlot(s CurveSpec) (*plot.Plot, [][]Point, error) {
 	p := newPlot(s.Title, s.XLabel, "failure probability")
 	p.Y.Scale = plot.LogScale{}
 	p.Y.Tick.Marker = probTicks{}
-	p.Legend.Top, p.Legend.Left = true, false
 	floor, ceil := math.Inf(1), 0.0
 	for _, c := range s.Curves {
 		for i := range c.X {
@@ -76,13 +77,17 @@ func CurvePlot(s CurveSpec) (*plot.Plot, [][]Point, error) {
 		if err != nil {
 			return nil, nil, err
 		}
-		band.Color = withAlpha(Palette[2], 40)
+		band.Color = windowFill
 		band.LineStyle.Width = 0
 		p.Add(band)
 		p.Legend.Add("window meeting the target", band)
 	}
+	// Any mode is drawn first, under the modes it sums, so that a mode
+	// that makes up all of it stays visible on top of it.
+	layers := make([][]plot.Plotter, len(s.Curves))
 	for ci, c := range s.Curves {
-		col, dash, glyph := Series(ci)
+		st := styleOf(c.Key, ci)
+		col := st.Color
 		var pts []Point
 		var line, bandTop, bandBot, ups plotter.XYs
 		for i := range c.X {
@@ -111,16 +116,19 @@ func CurvePlot(s CurveSpec) (*plot.Plot, [][]Point, error) {
 			}
 			band.Color = withAlpha(col, 45)
 			band.LineStyle.Width = 0
-			p.Add(band)
+			layers[ci] = append(layers[ci], band)
 		}
 		if len(line) > 0 {
 			l, sc, err := plotter.NewLinePoints(line)
 			if err != nil {
 				return nil, nil, err
 			}
-			l.Color, l.Dashes, l.Width = col, dash, vg.Points(2)
-			sc.Color, sc.Shape, sc.Radius = col, glyph, vg.Points(3.5)
-			p.Add(l, sc)
+			st.Line(l, vg.Points(2))
+			st.Scatter(sc, vg.Points(3.5))
+			if c.Key == AnyMode {
+				l.Width = vg.Points(2.5)
+			}
+			layers[ci] = append(layers[ci], l, sc)
 			thumbs = append(thumbs, l, sc)
 		}
 		if len(ups) > 0 {
@@ -129,7 +137,7 @@ func CurvePlot(s CurveSpec) (*plot.Plot, [][]Point, error) {
 				return nil, nil, err
 			}
 			sc.Color, sc.Shape, sc.Radius = col, downTriangle{}, vg.Points(4)
-			p.Add(sc)
+			layers[ci] = append(layers[ci], sc)
 			if len(thumbs) == 0 {
 				thumbs = append(thumbs, sc)
 			}
@@ -140,24 +148,32 @@ func CurvePlot(s CurveSpec) (*plot.Plot, [][]Point, error) {
 		}
 		p.Legend.Add(name, thumbs...)
 	}
+	for _, under := range []bool{true, false} {
+		for ci, c := range s.Curves {
+			if (c.Key == AnyMode) == under {
+				p.Add(layers[ci]...)
+			}
+		}
+	}
 	if s.Target > 0 {
 		l, err := plotter.NewLine(plotter.XYs{{X: xmin, Y: s.Target}, {X: xmax, Y: s.Target}})
 		if err != nil {
 			return nil, nil, err
 		}
-		l.Color, l.Dashes, l.Width = Palette[6], []vg.Length{vg.Points(5), vg.Points(3)}, vg.Points(1.5)
+		l.LineStyle = targetLine
 		p.Add(l)
 		p.Legend.Add("target", l)
 	}
-	entries := len(s.Curves) + 1
-	if s.Window[1] > s.Window[0] {
-		entries++
-	}
-	p.Y.Min, p.Y.Max = floor, logHeadroom(floor, ceil, entries)
+	p.Y.Min, p.Y.Max = floor, ceil
 	if xmin < xmax {
 		p.X.Min, p.X.Max = xmin, xmax
 	}
 	return p, drawn, nil
+}
+
+// variantShapes mark the variants of a comparison.
+var variantShapes = []draw.GlyphDrawer{
+	draw.CircleGlyph{}, draw.BoxGlyph{}, diamondGlyph{}, draw.RingGlyph{}, draw.SquareGlyph{}, draw.CrossGlyph{}, draw.PlusGlyph{},
 }
 
 // downTriangle marks an upper bound.
@@ -177,12 +193,14 @@ func (downTriangle) DrawGlyph(c *draw.Canvas, sty draw.GlyphStyle, pt vg.Point) 
 // Group is one mode of a side-by-side comparison: one probability per variant.
 type Group struct {
 	Name      string
+	Key       string // mode key: the group's colour ([ModeStyle])
 	P, Lo, Hi []float64
 	UpperOnly []bool
 }
 
 // GroupPlot draws, for each group (mode), the probability of each variant
-// side by side with its interval, on a log scale.
+// side by side with its interval, on a log scale. A group has its mode's
+// colour; a variant has its own marker, shown in the legend in grey.
 func GroupPlot(title string, variants []string, groups []Group) (*plot.Plot, error) {
 	p := newPlot(title, "", "failure probability")
 	p.Y.Scale = plot.LogScale{}
@@ -204,20 +222,23 @@ func GroupPlot(title string, variants []string, groups []Group) (*plot.Plot, err
 	ceil = math.Min(1, ceil*3)
 	nv := len(variants)
 	for vi, name := range variants {
-		col, _, glyph := Series(vi)
-		var pts, ups plotter.XYs
-		var errs plotter.YErrors
+		glyph := variantShapes[vi%len(variantShapes)]
+		legendGlyph := &plotter.Scatter{GlyphStyle: draw.GlyphStyle{Color: Palette[cGrey], Shape: glyph, Radius: vg.Points(4)}}
+		var thumbs []plot.Thumbnailer
 		for gi, g := range groups {
+			col := styleOf(g.Key, gi).Color
 			x := float64(gi) + (float64(vi)-float64(nv-1)/2)*0.8/float64(nv)
 			if g.UpperOnly[vi] {
-				ups = append(ups, plotter.XY{X: x, Y: math.Max(g.Hi[vi], floor)})
+				sc, err := plotter.NewScatter(plotter.XYs{{X: x, Y: math.Max(g.Hi[vi], floor)}})
+				if err != nil {
+					return nil, err
+				}
+				sc.Color, sc.Shape, sc.Radius = col, downTriangle{}, vg.Points(4.5)
+				p.Add(sc)
 				continue
 			}
-			pts = append(pts, plotter.XY{X: x, Y: g.P[vi]})
-			errs = append(errs, struct{ Low, High float64 }{g.P[vi] - math.Max(g.Lo[vi], floor), g.Hi[vi] - g.P[vi]})
-		}
-		var thumbs []plot.Thumbnailer
-		if len(pts) > 0 {
+			pts := plotter.XYs{{X: x, Y: g.P[vi]}}
+			errs := plotter.YErrors{{Low: g.P[vi] - math.Max(g.Lo[vi], floor), High: g.Hi[vi] - g.P[vi]}}
 			sc, err := plotter.NewScatter(pts)
 			if err != nil {
 				return nil, err
@@ -232,55 +253,85 @@ func GroupPlot(title string, variants []string, groups []Group) (*plot.Plot, err
 			}
 			eb.Color, eb.Width = col, vg.Points(1.5)
 			p.Add(eb, sc)
-			thumbs = append(thumbs, sc)
 		}
-		if len(ups) > 0 {
-			sc, err := plotter.NewScatter(ups)
-			if err != nil {
-				return nil, err
-			}
-			sc.Color, sc.Shape, sc.Radius = col, downTriangle{}, vg.Points(4.5)
-			p.Add(sc)
-			if len(thumbs) == 0 {
-				thumbs = append(thumbs, sc)
-			}
-		}
+		thumbs = append(thumbs, legendGlyph)
 		p.Legend.Add(name, thumbs...)
 	}
-	p.Legend.Add("open triangle pointing down: upper bound, no sample failed")
+	p.Legend.Add("upper bound, no sample failed", &plotter.Scatter{GlyphStyle: draw.GlyphStyle{Color: Palette[cGrey], Shape: downTriangle{}, Radius: vg.Points(4)}})
+	p.Legend.Add("in each mode the variants stand left to right as listed")
+	// Mode names wrap at spaces to the width of their group (the legend,
+	// with its long last line, goes below the axes); when a word is wider
+	// than that, the names are slanted instead.
 	ticks := make([]plot.Tick, len(groups))
+	gw := (Width - 2*margin - vg.Points(70)) / vg.Length(max(len(groups), 1))
+	slant := false
+	for _, g := range groups {
+		for _, w := range strings.Fields(g.Name) {
+			if p.X.Tick.Label.Width(w) > gw*0.92 {
+				slant = true
+			}
+		}
+	}
 	for i, g := range groups {
-		ticks[i] = plot.Tick{Value: float64(i), Label: g.Name}
+		name := g.Name
+		if !slant {
+			name = strings.Join(wrapText(name, p.X.Tick.Label, gw*0.92, 3), "\n")
+		}
+		ticks[i] = plot.Tick{Value: float64(i), Label: name}
+	}
+	if slant {
+		p.X.Tick.Label.Rotation = math.Pi / 6
+		p.X.Tick.Label.XAlign, p.X.Tick.Label.YAlign = draw.XRight, draw.YTop
 	}
 	p.X.Tick.Marker = plot.ConstantTicks(ticks)
 	p.X.Min, p.X.Max = -0.6, float64(len(groups))-0.4
-	p.Y.Min, p.Y.Max = floor, logHeadroom(floor, ceil, len(variants)+1)
+	p.Y.Min, p.Y.Max = floor, ceil
 	return p, nil
 }
 
-// probTicks labels a log probability axis by decades ("1e-04", …, "1") and
-// leaves the headroom above 1, kept for the legend, unlabelled.
+// probTicks labels a log probability axis by decades ("1e-4", …, "0.01",
+// "1"), every k-th decade when the axis spans more than ten, at 1, 2 and 5
+// of each decade when it spans at most three; unlabelled ticks at 2 … 9
+// times each decade while it spans at most eight; nothing above 1.
 type probTicks struct{}
 
 func (probTicks) Ticks(lo, hi float64) []plot.Tick {
+	if !(lo > 0) || !(hi > lo) {
+		return nil
+	}
+	hi = math.Min(hi, 1)
+	e0, e1 := int(math.Floor(math.Log10(lo)+1e-9)), int(math.Ceil(math.Log10(hi)-1e-9))
+	k := max(1, (e1-e0+9)/10)
 	var out []plot.Tick
-	for _, t := range (plot.LogTicks{}).Ticks(lo, hi) {
-		if t.Value > 1*(1+1e-9) {
+	for e := e0; e <= e1; e++ {
+		dec := math.Pow(10, float64(e))
+		if dec >= lo*(1-1e-9) && dec <= hi*(1+1e-9) {
+			t := plot.Tick{Value: dec}
+			if e%k == 0 {
+				t.Label = probLabel(1, e)
+			}
+			out = append(out, t)
+		}
+		if e1-e0 > 8 {
 			continue
 		}
-		if t.Label != "" {
-			e := math.Round(math.Log10(t.Value))
-			t.Value = math.Pow(10, e)
-			switch {
-			case e == 0:
-				t.Label = "1"
-			case e >= -3:
-				t.Label = strconv.FormatFloat(t.Value, 'f', -1, 64)
-			default:
-				t.Label = fmt.Sprintf("1e%d", int(e))
+		for m := 2; m < 10; m++ {
+			if v := float64(m) * dec; v >= lo && v <= hi {
+				t := plot.Tick{Value: v}
+				if e1-e0 <= 3 && (m == 2 || m == 5) { // a short axis: 1, 2, 5 of each decade
+					t.Label = probLabel(m, e)
+				}
+				out = append(out, t)
 			}
 		}
-		out = append(out, t)
 	}
 	return out
+}
+
+// probLabel writes m·10^e: "0.02", "1", "5e-5".
+func probLabel(m, e int) string {
+	if e >= -3 {
+		return strconv.FormatFloat(float64(m)*math.Pow(10, float64(e)), 'f', -1, 64)
+	}
+	return fmt.Sprintf("%de%d", m, e)
 }

@@ -2,6 +2,7 @@ package plots
 
 import (
 	"fmt"
+	"image/color"
 	"math"
 
 	"gonum.org/v1/plot"
@@ -59,11 +60,17 @@ func (h Hist) Bars(n int, scale float64) []plotter.HistogramBin {
 type Marker struct {
 	X     float64
 	Label string
+	// Key is the mode key whose style the line takes ([ModeStyle]); Ref
+	// draws the black dashed reference line (the failure line at 1).
+	// Without either the marker takes series style i+1.
+	Key string
+	Ref bool
 }
 
 // HistSpec describes a histogram picture.
 type HistSpec struct {
 	Title, XLabel string
+	Key           string // mode key: bars in the mode's colour ("" neutral)
 	Hist          Hist
 	Scale         float64 // values are divided by Scale for display
 	Bins          int     // display bins (default 50)
@@ -88,9 +95,14 @@ func HistogramPlot(s HistSpec) (*plot.Plot, []plotter.HistogramBin, error) {
 		p.Legend.Add("no sample fell inside the plotted range")
 		return p, bars, nil
 	}
-	h := &plotter.Histogram{Bins: bars, Width: bars[0].Max - bars[0].Min, FillColor: withAlpha(Palette[5], 160)}
+	fill, edge := color.NRGBA{R: 190, G: 190, B: 190, A: 255}, Palette[cGrey] // neutral: not a mode's colour
+	if s.Key != "" {
+		c := ModeStyle(s.Key).Color
+		fill, edge = withAlpha(c, 90), c
+	}
+	h := &plotter.Histogram{Bins: bars, Width: bars[0].Max - bars[0].Min, FillColor: fill}
 	h.LineStyle.Width = vg.Points(0.5)
-	h.LineStyle.Color = Palette[0]
+	h.LineStyle.Color = edge
 	p.Add(h)
 	xmin, xmax := bars[0].Min, bars[len(bars)-1].Max
 	ymax := 0.0
@@ -110,12 +122,17 @@ func HistogramPlot(s HistSpec) (*plot.Plot, []plotter.HistogramBin, error) {
 			continue
 		}
 		lo, hi = math.Min(lo, x), math.Max(hi, x)
-		c, d, _ := Series(i + 1)
-		l, err := plotter.NewLine(plotter.XYs{{X: x, Y: 0}, {X: x, Y: ymax * 1.08}})
+		l, err := plotter.NewLine(plotter.XYs{{X: x, Y: 0}, {X: x, Y: ymax * 1.05}})
 		if err != nil {
 			return nil, nil, err
 		}
-		l.Color, l.Dashes, l.Width = c, d, vg.Points(2)
+		switch {
+		case m.Ref:
+			l.LineStyle = failureLine
+			l.Width = vg.Points(2)
+		default:
+			styleOf(m.Key, i+1).Line(l, vg.Points(2))
+		}
 		p.Add(l)
 		p.Legend.Add(m.Label, l)
 	}
@@ -124,7 +141,7 @@ func HistogramPlot(s HistSpec) (*plot.Plot, []plotter.HistogramBin, error) {
 	}
 	pad := (hi - lo) * 0.03
 	p.X.Min, p.X.Max = lo-pad, hi+pad
-	p.Y.Min, p.Y.Max = 0, ymax*1.3 // room for the legend
+	p.Y.Min, p.Y.Max = 0, ymax*1.05
 	return p, bars, nil
 }
 
@@ -165,6 +182,6 @@ func OverlayPlot(title, xlabel string, scale float64, bins int, hs []Overlay) (*
 		p.X.Min, p.X.Max = lo, hi
 	}
 	p.Y.Min = 0
-	p.Y.Max *= 1.25
+	p.Y.Max *= 1.05
 	return p, nil
 }

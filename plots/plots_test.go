@@ -98,8 +98,8 @@ func TestCurvePlotPoints(t *testing.T) {
 	checkPNG(t, o)
 }
 
-// checkPNG renders a plot, decodes it and checks its size: 8 × 5 in at the
-// renderer's 96 dpi.
+// checkPNG renders a plot, decodes it and checks its size: 8 in wide at
+// the renderer's 96 dpi, at least 5 in high (a legend below adds height).
 func checkPNG(t *testing.T, p *plot.Plot) {
 	t.Helper()
 	b, err := PNG(p)
@@ -110,31 +110,72 @@ func checkPNG(t *testing.T, p *plot.Plot) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	if r := img.Bounds(); r.Dx() != 768 || r.Dy() != 480 {
-		t.Errorf("PNG is %dx%d, want 768x480", r.Dx(), r.Dy())
+	if r := img.Bounds(); r.Dx() != 768 || r.Dy() < 480 {
+		t.Errorf("PNG is %dx%d, want 768 wide and at least 480 high", r.Dx(), r.Dy())
 	}
 }
 
-func TestPlainTicksDropTrailingZeros(t *testing.T) {
-	// The labels keep the default ticker's values and significant digits
-	// and lose padding zeros only.
-	for _, c := range []struct {
-		lo, hi float64
-	}{{0, 250000}, {22, 88}, {0, 1}, {0.001, 0.0042}} {
-		def := plot.DefaultTicks{}.Ticks(c.lo, c.hi)
-		got := plainTicks{}.Ticks(c.lo, c.hi)
-		for i, tk := range got {
+func TestPlainTicksReadable(t *testing.T) {
+	t.Parallel()
+	// Enough labels to read a value off the axis: 5 to 12 round values,
+	// each label its tick's value without padding zeros.
+	for _, c := range []struct{ lo, hi float64 }{{0, 250000}, {22, 88}, {0, 1}, {0.001, 0.0042}, {0.5, 3.3}, {-10, 70}, {12.2, 46.4}, {0.97, 1.03}} {
+		var labels int
+		for _, tk := range (plainTicks{}).Ticks(c.lo, c.hi) {
 			if tk.Label == "" {
 				continue
 			}
+			labels++
 			if strings.HasSuffix(tk.Label, ".") || strings.Contains(tk.Label, ".") && strings.HasSuffix(tk.Label, "0") {
 				t.Errorf("[%g, %g]: label %q keeps padding", c.lo, c.hi, tk.Label)
 			}
 			v, err := strconv.ParseFloat(tk.Label, 64)
-			w, _ := strconv.ParseFloat(def[i].Label, 64)
-			if err != nil || v != w {
-				t.Errorf("[%g, %g]: label %q for default %q", c.lo, c.hi, tk.Label, def[i].Label)
+			if err != nil || math.Abs(v-tk.Value) > 1e-9*math.Max(1, math.Abs(v)) || tk.Value < c.lo || tk.Value > c.hi {
+				t.Errorf("[%g, %g]: label %q at %g", c.lo, c.hi, tk.Label, tk.Value)
 			}
 		}
+		if labels < minLabels || labels > 12 {
+			t.Errorf("[%g, %g]: %d labelled ticks, want 5 to 12", c.lo, c.hi, labels)
+		}
+	}
+}
+
+func TestReliabilityPlotPNG(t *testing.T) {
+	t.Parallel()
+	s := ReliabilitySpec{Title: "R", N: []float64{1e5, 1e6, 1e7}, R: []float64{1, 0.6, 0.02}, Lo: []float64{0.99, 0.58, 0.01}, Hi: []float64{1, 0.62, 0.03}, DesignLife: 2e6}
+	p, err := ReliabilityPlot(s)
+	if err != nil {
+		t.Fatal(err)
+	}
+	checkPNG(t, p)
+	if _, err := ReliabilityPlot(ReliabilitySpec{N: []float64{1}}); err == nil {
+		t.Error("one point accepted")
+	}
+}
+
+func TestCycleLabels(t *testing.T) {
+	for _, c := range []struct {
+		v    float64
+		want string
+	}{{2.113e7, "2.11e7"}, {1e9, "1e9"}, {9e6, "9e6"}, {1.5e5, "1.5e5"}, {900, "900"}} {
+		if got := cycles(c.v); got != c.want {
+			t.Errorf("cycles(%g) = %q, want %q", c.v, got, c.want)
+		}
+	}
+}
+
+// The unreliability view draws 1 − R(N) on a log axis with the B-lives.
+func TestUnreliabilityPlot(t *testing.T) {
+	s := ReliabilitySpec{Title: "t", N: []float64{1e5, 1e6, 1e7}, R: []float64{1, 0.99, 0.5}, Lo: []float64{0.999, 0.98, 0.45}, Hi: []float64{1, 0.995, 0.55},
+		DesignLife: 2e6, Marks: []LifeMark{{Label: "B1", N: 1e6, R: 0.99}}, Unreliability: true}
+	p, err := ReliabilityPlot(s)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !(p.Y.Min > 0) || p.Y.Max != 1 {
+		t.Errorf("log axis %g … %g, want (0, 1]", p.Y.Min, p.Y.Max)
+	}
+	if _, err := PNG(p); err != nil {
+		t.Fatal(err)
 	}
 }

@@ -81,7 +81,11 @@ func ProbabilityPlot(s ProbabilitySpec) (*plot.Plot, error) {
 		return nil, fmt.Errorf("plots: probability plot without data")
 	}
 	paper := d.Paper
-	p := newPlot(s.Title, s.XLabel, "cumulative probability ("+paper.String()+" scale)")
+	yScale := "normal quantile scale" // Φ⁻¹(p), the y axis of normal and lognormal paper
+	if paper == WeibullPaper {
+		yScale = "Weibull scale, ln(−ln(1 − p))"
+	}
+	p := newPlot(s.Title, s.XLabel, "cumulative probability ("+yScale+")")
 	p.Legend.Top, p.Legend.Left = true, true
 	p.Legend.XOffs, p.Legend.YOffs = vg.Points(6), -vg.Points(6)
 	p.Legend.Padding = vg.Points(2)
@@ -211,10 +215,25 @@ func percent(v float64) string {
 
 // logTicks125 labels a logarithmic value axis at 1, 2 and 5 of each decade
 // (every integer multiple when the axis spans less than a decade), with
-// unlabelled minor ticks between.
+// unlabelled minor ticks between; an axis too narrow for three such labels
+// (0.15 … 0.3, say) takes the round values of a linear axis instead.
 type logTicks125 struct{}
 
 func (logTicks125) Ticks(lo, hi float64) []plot.Tick {
+	out := logTicks(lo, hi)
+	labelled := 0
+	for _, t := range out {
+		if t.Label != "" {
+			labelled++
+		}
+	}
+	if labelled < 3 {
+		return plainTicks{}.Ticks(lo, hi)
+	}
+	return out
+}
+
+func logTicks(lo, hi float64) []plot.Tick {
 	var out []plot.Tick
 	labels := []float64{1, 2, 5}
 	if hi/lo < 10 {

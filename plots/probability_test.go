@@ -24,3 +24,22 @@ func TestProbabilityPlotEmpty(t *testing.T) {
 		t.Error("want an error for a plot without data")
 	}
 }
+
+// A lognormal paper over a narrow range (nut factors 0.15 … 0.3) still has
+// enough labelled values to read off.
+func TestNarrowLogAxisLabels(t *testing.T) {
+	n := 0
+	for _, tk := range (logTicks125{}).Ticks(0.15, 0.3) {
+		if tk.Label != "" {
+			n++
+		}
+	}
+	if n < 3 {
+		t.Errorf("%d labelled ticks on 0.15 … 0.3, want ≥ 3", n)
+	}
+	for _, tk := range (logTicks125{}).Ticks(1, 1000) {
+		if tk.Value == 20 && tk.Label != "20" {
+			t.Errorf("wide axis: 20 labelled %q, want the 1-2-5 labels", tk.Label)
+		}
+	}
+}

@@ -24,6 +24,7 @@ type SimulateOptions struct {
 	LoadSteps int
 	Drivers   bool
 	SignOff   float64
+	Part      partFlags
 }
 
 func newSimulateCmd(stdout, stderr io.Writer, runF func(context.Context, *SimulateOptions) error) *cobra.Command {
@@ -72,10 +73,14 @@ marked partial.
 	cmd.Flags().IntVar(&opts.LoadSteps, "load-steps", 9, "values of the load multiplier for --load-curve")
 	cmd.Flags().Float64Var(&opts.SignOff, "sign-off", 0, "with --out: target failure probability of the sign-off page's verdicts, in (0, 1) (default: the scenario's study.target_probability)")
 	cmd.Flags().BoolVar(&opts.Drivers, "drivers", false, "also find what drives each mode (see 'boltrisk drivers'; a crude run of the same samples)")
+	opts.Part.add(cmd)
 	return cmd
 }
 
 func runSimulate(ctx context.Context, opts *SimulateOptions) error {
+	if opts.Part.Spec != "" {
+		return runSimulatePart(ctx, opts)
+	}
 	s, sys, err := opts.scenario()
 	if err != nil {
 		return err
@@ -85,6 +90,9 @@ func runSimulate(ctx context.Context, opts *SimulateOptions) error {
 		return err
 	}
 	if err := checkSignOff(opts); err != nil {
+		return err
+	}
+	if err := opts.Part.fixed(&opts.Run, &set); err != nil {
 		return err
 	}
 	if opts.LoadCurve != "" && opts.Output.Dir == "" {
@@ -149,7 +157,14 @@ func writeSimulationReview(ctx context.Context, opts *SimulateOptions, s *scenar
 		if err != nil {
 			return err
 		}
-		figs = append(append(figs, pf), sf...)
+		ex, err := report.ExceedanceFigures(s, res, set.Interval)
+		if err != nil {
+			return err
+		}
+		figs = append(figs, pf)
+		for i := range sf { // each mode's histogram beside its lower tail
+			figs = append(figs, sf[i], ex[i])
+		}
 	}
 	if opts.LoadCurve != "" && !res.Partial {
 		lset := set

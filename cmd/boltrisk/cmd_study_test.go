@@ -106,6 +106,8 @@ func TestStudyBadInvocations(t *testing.T) {
 		{[]string{"simulate", a, "--precision", "-0.1"}, exitUsage, "--precision"},
 		{[]string{"simulate", a, "--target", "0.1"}, exitUsage, "unknown flag: --target"},
 		{[]string{"simulate", a, "--interval", "jeffreys"}, exitUsage, "--interval"},
+		{[]string{"simulate", a, "--method", "montecarlo"}, exitUsage, "allowed auto, crude, importance, subset"},
+		{[]string{"simulate", a, "--method", "subset", "--repeats", "1"}, exitUsage, "--repeats 1: from 2 to 10000"},
 		{[]string{"simulate", a, "--modes", "fatique"}, exitUsage, "unknown mode"},
 	} {
 		code, out, errs := runCLI(test.args...)

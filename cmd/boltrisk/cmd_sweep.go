@@ -24,6 +24,7 @@ type SweepOptions struct {
 	MaxScatter string
 	Run        runFlags
 	Output     outFlags
+	Part       partFlags
 }
 
 func newSweepCmd(stdout, stderr io.Writer, runF func(context.Context, *SweepOptions) error) *cobra.Command {
@@ -76,6 +77,7 @@ the largest scatter of INPUT (at the scenario's nominal values) that still meets
 	fl.StringVar(&opts.MaxScatter, "max-scatter", "", "find the largest scatter of this uncertain input that meets --target")
 	opts.Run.add(cmd, false, "crude")
 	opts.Output.add(cmd)
+	opts.Part.add(cmd)
 	return cmd
 }
 
@@ -142,6 +144,9 @@ func splitUnit(s string) (num, unit string) {
 }
 
 func runSweep(ctx context.Context, opts *SweepOptions) error {
+	if opts.Part.Spec != "" {
+		return runSweepPart(ctx, opts)
+	}
 	s, sys, err := opts.scenario()
 	if err != nil {
 		return err

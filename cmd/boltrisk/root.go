@@ -133,9 +133,12 @@ the torque, tolerance and lubrication that make it safe.
 		newCompareCmd(stdout, stderr, nil),
 		newSpecCmd(stdout, stderr, nil),
 		newDriversCmd(stdout, stderr, nil),
+		newLifeCmd(stdout, stderr, nil),
 		newCatalogCmd(stdout),
 		newExampleCmd(stdout),
 		newSchemaCmd(stdout),
+		newFitCmd(stdout, stderr, nil),
+		newMergeCmd(stdout, stderr), newClusterScriptCmd(stdout), newRankCmd(stdout, stderr),
 	)
 	return root
 }

@@ -32,6 +32,7 @@ type runFlags struct {
 	Precision  string
 	Interval   string
 	Method     string
+	Repeats    int
 	Quiet      bool
 	Modes      string
 	changed    func(string) bool
@@ -53,6 +54,7 @@ func (f *runFlags) add(cmd *cobra.Command, precision bool, method string) {
 	}
 	if method != "" {
 		fl.StringVar(&f.Method, "method", method, "estimator: crude (Monte Carlo), importance (sampling at the design points), subset (simulation) or auto (crude when the budget reaches the precision, else importance, else subset)")
+		fl.IntVar(&f.Repeats, "repeats", 0, "subset simulation: independent runs per round, whose spread gives the c.o.v. (2 … 10000; default 20, more rounds until --precision is met)")
 	}
 	fl.BoolVar(&f.Quiet, "quiet", false, "no progress bar or timing line on stderr")
 	fl.StringVar(&f.Modes, "modes", "", "comma-separated mode keys to tally (default: every active mode)")
@@ -106,6 +108,12 @@ func (f *runFlags) settings(s *scenario.Scenario) (montecarlo.Settings, error) {
 		if set.Method, err = montecarlo.ParseMethod(f.Method); err != nil {
 			return set, usagef("--method %q: allowed auto, crude, importance, subset", f.Method)
 		}
+	}
+	if f.Repeats != 0 {
+		if f.Repeats < 2 || f.Repeats > 10000 {
+			return set, usagef("--repeats %d: from 2 to 10000 independent subset-simulation runs", f.Repeats)
+		}
+		set.Repeats = f.Repeats
 	}
 	if !(set.Confidence > 0 && set.Confidence < 1) {
 		return set, usagef("--confidence %g: must lie strictly between 0 and 1 (e.g. 0.95)", set.Confidence)

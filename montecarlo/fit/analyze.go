@@ -137,6 +137,27 @@ type Result struct {
 // Best returns the candidate with the smallest AIC.
 func (r *Result) Best() *Candidate { return &r.Candidates[0] }
 
+// OpenTailed reports whether a family's upper tail is unbounded (normal,
+// lognormal, Weibull), so that it can put probability beyond the data.
+func OpenTailed(k montecarlo.Kind) bool {
+	return k == montecarlo.Normal || k == montecarlo.LogNormal || k == montecarlo.Weibull
+}
+
+// Recommended returns the candidate to put into a scenario: the smallest
+// AIC among the open-tailed families, else the best. A bounded family
+// (uniform, triangular, truncated normal) often wins AIC on a small series
+// — its support hugs the data — but ends at the fitted bounds, so it would
+// call every failure beyond them impossible; small probabilities live in
+// exactly those tails (common practice in structural reliability).
+func (r *Result) Recommended() *Candidate {
+	for i := range r.Candidates {
+		if OpenTailed(r.Candidates[i].Family) {
+			return &r.Candidates[i]
+		}
+	}
+	return r.Best()
+}
+
 // Candidate returns the fit of a family, or nil.
 func (r *Result) Candidate(k montecarlo.Kind) *Candidate {
 	for i := range r.Candidates {

@@ -151,3 +151,20 @@ func TestLargeSampleSkipsBootstrap(t *testing.T) {
 	}
 	noNaN(t, r)
 }
+
+// A bounded family that wins AIC on a small series is not the one put into
+// a scenario: the recommendation is the best open-tailed family.
+func TestRecommendedIsOpenTailed(t *testing.T) {
+	// The demo nut factors of testdata/fit/torque-tension-demo.csv (invented).
+	k := []float64{0.187, 0.213, 0.198, 0.221, 0.176, 0.205, 0.192, 0.230, 0.201, 0.184, 0.209, 0.195}
+	r, err := Analyze(k, Options{Bootstrap: -1})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if r.Best().Family != montecarlo.Uniform {
+		t.Fatalf("best by AIC is %v; the test expects the uniform to win on this series", r.Best().Family)
+	}
+	if got := r.Recommended().Family; !OpenTailed(got) {
+		t.Errorf("recommended %v, want an open-tailed family", got)
+	}
+}

@@ -66,6 +66,7 @@ type Column struct {
 	File, Name string
 	Quantity             // dimension and display unit of the values
 	Values     []float64 // in internal units, in file order, blank cells left out
+	Lines      []int32   // file row of each value (the header is row 1)
 	Rows       int       // data rows read (blank cells included)
 	Blank      []int     // file rows (the header is row 1) of blank cells, skipped
 	Notes      []string
@@ -94,6 +95,11 @@ func (e *DataError) Error() string {
 	b.WriteString(": ")
 	b.WriteString(e.Msg)
 	return b.String()
+}
+
+func cellLine(cs *csv.Reader, idx int) int {
+	line, _ := cs.FieldPos(idx)
+	return line
 }
 
 // sig is units.Sig without the trailing zeros of the decimals.
@@ -277,6 +283,7 @@ func ReadColumn(r io.Reader, s Spec) (*Column, error) {
 				}
 			}
 			col.Values = append(col.Values, v)
+			col.Lines = append(col.Lines, int32(cellLine(cs, idx)))
 			continue
 		}
 		viaComma := false
@@ -294,6 +301,7 @@ func ReadColumn(r io.Reader, s Spec) (*Column, error) {
 					}
 				}
 				col.Values = append(col.Values, v)
+				col.Lines = append(col.Lines, int32(cellLine(cs, idx)))
 				continue
 			}
 			cell, viaComma = c2, true
@@ -333,6 +341,7 @@ func ReadColumn(r io.Reader, s Spec) (*Column, error) {
 			return nil, fail(line, col.Name, "%q is a %s, but the column holds %s values (%s): mixed dimensions", rec[idx], info.dim, colUnit.dim, where)
 		}
 		col.Values = append(col.Values, v*info.factor)
+		col.Lines = append(col.Lines, int32(line))
 		commaUsed = commaUsed || viaComma
 	}
 	col.Rows = rows

@@ -187,11 +187,17 @@ func Importance(ctx context.Context, p *Problem, s *ImportanceSettings) ([]Resul
 	if len(sums.Events) == 0 {
 		return nil, cerr
 	}
+	return importanceResults(p, q, dps, &sums, is, cerr != nil), nil
+}
+
+// importanceResults turns the merged sums of an importance-sampling run
+// into its results; partial marks an interrupted run.
+func importanceResults(p *Problem, q *Proposal, dps []DesignPoint, sums *ChunkSums, is ImportanceSettings, partial bool) []Result {
 	formEvals := int64(0)
 	for _, d := range dps {
 		formEvals += d.Evaluations
 	}
-	ests := Finish(p, q, &sums, is.Confidence)
+	ests := Finish(p, q, sums, is.Confidence)
 	z := zQuantile(is.Confidence)
 	ts := p.targets()
 	out := make([]Result, len(ts))
@@ -201,7 +207,7 @@ func Importance(ctx context.Context, p *Problem, s *ImportanceSettings) ([]Resul
 			Event: tg.name, Components: tg.comps, Method: MethodImportance,
 			Probability: e.Probability, COV: e.COV, Confidence: e.Confidence, Lo: e.Lo, Hi: e.Hi, UpperOnly: e.UpperOnly,
 			Interval:    fmt.Sprintf("lognormal: P·exp(∓%.4g·√ln(1 + COV²)) (normal quantile on the log scale)", z),
-			Evaluations: formEvals + sums.Evaluations, Partial: cerr != nil,
+			Evaluations: formEvals + sums.Evaluations, Partial: partial,
 			Shift: e.Shift, ShiftSE: e.ShiftSE,
 			Importance: &ImportanceDiagnostics{
 				Samples: e.Samples, Failed: e.Failed, Invalid: sums.Invalid, ESS: e.ESS, MaxShare: e.MaxShare,
@@ -233,7 +239,7 @@ func Importance(ctx context.Context, p *Problem, s *ImportanceSettings) ([]Resul
 		if e.Degenerate {
 			r.Warnings = append(r.Warnings, fmt.Sprintf("degenerate weights (ESS %.3g, largest weight %.2g of the estimate): the c.o.v. is not reliable", e.ESS, e.MaxShare))
 		}
-		if !e.UpperOnly && e.COV > is.Precision && is.Samples == 0 && cerr == nil {
+		if !e.UpperOnly && e.COV > is.Precision && is.Samples == 0 && !partial {
 			r.Warnings = append(r.Warnings, fmt.Sprintf("target c.o.v. %g not reached within %d samples", is.Precision, sums.Samples))
 		}
 		if sums.Invalid > 0 {
@@ -241,5 +247,5 @@ func Importance(ctx context.Context, p *Problem, s *ImportanceSettings) ([]Resul
 		}
 		out[t] = r
 	}
-	return out, nil
+	return out
 }

@@ -50,6 +50,7 @@ func (p Provenance) rows() [][2]string {
 		}
 		seen[name+s.SHA256] = true
 		rows = append(rows, [2]string{"input " + name, "SHA-256 " + s.SHA256})
+		rows = append(rows, dataRows(s, seen)...) // fitdata.go
 	}
 	return rows
 }
@@ -94,16 +95,16 @@ func PreloadFigure(s *scenario.Scenario, r *montecarlo.Result, sys units.System)
 	unit, scale := forceUnit(sys)
 	h := &r.Quantities[montecarlo.QPreload].Sketch
 	markers := []plots.Marker{
-		{X: w.ProofMax, Label: "greatest below proof load " + sys.Format(w.ProofMax, units.Force)},
-		{X: w.AssemblyMax, Label: "greatest before yield in assembly " + sys.Format(w.AssemblyMax, units.Force) + " (on assembly preload)"},
+		{X: w.ProofMax, Label: "greatest below proof load " + sys.Format(w.ProofMax, units.Force), Key: model.Proof.Key()},
+		{X: w.AssemblyMax, Label: "greatest before yield in assembly " + sys.Format(w.AssemblyMax, units.Force) + " (on assembly preload)", Key: model.AssemblyYield.Key()},
 	}
 	below := 0.0
 	if w.SeparationMin > 0 {
-		markers = append([]plots.Marker{{X: w.SeparationMin, Label: "least against separation " + sys.Format(w.SeparationMin, units.Force)}}, markers...)
+		markers = append([]plots.Marker{{X: w.SeparationMin, Label: "least against separation " + sys.Format(w.SeparationMin, units.Force), Key: model.Separation.Key()}}, markers...)
 		below = h.FractionBelow(w.SeparationMin)
 	}
 	if w.SlipMin > 0 {
-		markers = append(markers, plots.Marker{X: w.SlipMin, Label: "least against slip " + sys.Format(w.SlipMin, units.Force)})
+		markers = append(markers, plots.Marker{X: w.SlipMin, Label: "least against slip " + sys.Format(w.SlipMin, units.Force), Key: model.Slip.Key()})
 		below = h.FractionBelow(w.SlipMin)
 	}
 	above := 1 - h.FractionBelow(w.ProofMax)
@@ -153,31 +154,38 @@ func forceUnit(sys units.System) (string, float64) {
 // with the failure line at 1.
 func SafetyFactorFigures(s *scenario.Scenario, r *montecarlo.Result) ([]Figure, error) {
 	var out []Figure
-	for _, m := range r.Modes {
-		spec := plots.HistSpec{
-			Title:   fmt.Sprintf("Safety factor: %s (%s)", strings.ToLower(m.Mode.Title()), titleOf(s)),
-			XLabel:  "safety factor (capacity / demand)",
-			Hist:    Hist(&m.SF.Sketch),
-			Markers: []plots.Marker{{X: 1, Label: "failure at 1"}},
-			Notes:   []string{fmt.Sprintf("failures: %d of %d samples", m.Estimate.Failures, m.Estimate.Samples)},
-		}
-		if r.Binned < r.Samples {
-			spec.Notes = append(spec.Notes, binnedBars(r))
-		}
-		if m.Mode == model.Fatigue {
-			spec.Title = fmt.Sprintf("Fatigue safety factor, %s criterion (%s)", s.Inputs().Criterion, titleOf(s))
-		}
+	for i := range r.Modes {
+		m := &r.Modes[i]
+		spec := SafetyFactorSpec(s, r, i)
 		p, _, err := plots.HistogramPlot(spec)
 		if err != nil {
 			return nil, err
 		}
-		f, err := figure(p, "sf-"+m.Mode.Key()+".png", fmt.Sprintf("Safety factor of %s over all samples; the mode fails left of the line at 1.", strings.ToLower(m.Mode.Title())))
+		f, err := figure(p, "sf-"+m.Mode.Key()+".png", fmt.Sprintf("Safety factor of %s over all samples; the mode fails left of the line at 1.", lowerFirst(modeName(s, m.Mode))))
 		if err != nil {
 			return nil, err
 		}
 		out = append(out, f)
 	}
 	return out, nil
+}
+
+// SafetyFactorSpec is the histogram of the i-th reported mode's safety
+// factor, in the mode's style.
+func SafetyFactorSpec(s *scenario.Scenario, r *montecarlo.Result, i int) plots.HistSpec {
+	m := &r.Modes[i]
+	spec := plots.HistSpec{
+		Title:   fmt.Sprintf("Safety factor, %s (%s)", modeName(s, m.Mode), titleOf(s)),
+		XLabel:  sfLabel(s, m.Mode),
+		Key:     m.Mode.Key(),
+		Hist:    Hist(&m.SF.Sketch),
+		Markers: []plots.Marker{{X: 1, Label: "failure at 1", Ref: true}},
+		Notes:   []string{fmt.Sprintf("failures: %d of %d samples", m.Estimate.Failures, m.Estimate.Samples)},
+	}
+	if r.Binned < r.Samples {
+		spec.Notes = append(spec.Notes, binnedBars(r))
+	}
+	return spec
 }
 
 // Curves converts a sweep into plot curves, one per mode and one for any mode.
@@ -201,15 +209,20 @@ func Curves(sw *study.Sweep) []plots.Curve {
 	}
 	for i, m := range sw.Steps[0].Result.Modes {
 		add(m.Mode.Title(), func(r *montecarlo.Result) interval.Estimate { return r.Modes[i].Estimate })
+		out[len(out)-1].Key = m.Mode.Key()
 	}
 	add("any mode", func(r *montecarlo.Result) interval.Estimate { return r.Any })
+	out[len(out)-1].Key = plots.AnyMode
 	return out
 }
 
 // CurveFigure draws the reliability curve of a sweep.
 func CurveFigure(s *scenario.Scenario, sw *study.Sweep, sys units.System, file, title string) (Figure, plots.CurveSpec, error) {
-	spec := plots.CurveSpec{Title: title + " (" + titleOf(s) + ")", Curves: Curves(sw), Scale: 1}
 	v := sw.Vary
+	if v.Path != "" { // a title naming the varied input names it by its label
+		title = strings.ReplaceAll(title, v.Path, fieldLabel(v.Path))
+	}
+	spec := plots.CurveSpec{Title: title + " (" + titleOf(s) + ")", Curves: Curves(sw), Scale: 1}
 	switch v.Kind {
 	case study.Input:
 		dim := scenario.FieldDim(v.Path)
@@ -218,14 +231,11 @@ func CurveFigure(s *scenario.Scenario, sw *study.Sweep, sys units.System, file, 
 			u, f = forceUnit(sys)
 		}
 		spec.Scale = f
-		spec.XLabel = fmt.Sprintf("nominal %s (%s)", v.Path, u)
-		if u == "" {
-			spec.XLabel = "nominal " + v.Path
-		}
+		spec.XLabel = axisLabel("nominal "+fieldLabel(v.Path), u)
 	case study.Load:
 		spec.XLabel = "multiplier on the service loads (1 = scenario)"
 	case study.Spread:
-		spec.XLabel = "multiplier on the scatter of " + v.Path + " (1 = scenario)"
+		spec.XLabel = "multiplier on the scatter of the " + fieldLabel(v.Path) + " (1 = scenario)"
 	}
 	caption := "Failure probability of each mode (log scale) with its confidence band; downward triangles are upper bounds where no sample failed."
 	if w := sw.Window; w != nil {
@@ -272,6 +282,79 @@ func CompareFigures(names []string, pr *montecarlo.Paired, sys units.System) ([]
 	if err != nil {
 		return nil, err
 	}
+	p, err = plots.GroupPlot("Failure probability by mode and variant", names, Groups(pr))
+	if err != nil {
+		return nil, err
+	}
+	f2, err := figure(p, "compare-modes.png", "Failure probability of each mode for each variant with its confidence interval (log scale).")
+	if err != nil {
+		return nil, err
+	}
+	return []Figure{f1, f2}, nil
+}
+
+// criterionTitles typeset the fatigue criteria for pictures.
+var criterionTitles = map[model.Criterion]string{
+	model.Goodman:      "Goodman",
+	model.Gerber:       "Gerber",
+	model.ASMEElliptic: "ASME-elliptic",
+	model.Amplitude:    "amplitude without mean-stress correction",
+}
+
+// modeName is the mode's title, with the criterion for fatigue.
+func modeName(s *scenario.Scenario, m model.Mode) string {
+	if m == model.Fatigue {
+		c, ok := criterionTitles[s.Inputs().Criterion]
+		if !ok {
+			c = s.Inputs().Criterion.String()
+		}
+		return m.Title() + ", " + c + " criterion"
+	}
+	return m.Title()
+}
+
+// sfLabel labels a safety-factor axis with the mode's title.
+func sfLabel(s *scenario.Scenario, m model.Mode) string {
+	return "safety factor of " + lowerFirst(modeName(s, m)) + " (capacity / demand)"
+}
+
+// lowerFirst lower-cases the first letter of a title for use inside a
+// sentence ("Yield in assembly" → "yield in assembly"); acronyms stay.
+func lowerFirst(t string) string {
+	if len(t) > 1 && t[1] >= 'A' && t[1] <= 'Z' {
+		return t
+	}
+	return strings.ToLower(t[:1]) + t[1:]
+}
+
+// fieldLabel is the registry's label of an input path ("tightening.torque"
+// → "torque"), or the path itself.
+func fieldLabel(path string) string {
+	for _, f := range scenario.Fields() {
+		if f.Path == path && f.Label != "" {
+			return f.Label
+		}
+	}
+	return path
+}
+
+// typesetUnit writes a unit as it is printed ("N*m" → "N·m", "mm^2" →
+// "mm²").
+func typesetUnit(u string) string {
+	return strings.NewReplacer("*", "·", "^2", "²", "^3", "³").Replace(u)
+}
+
+// axisLabel is "name (unit)" with the unit typeset, or the name alone.
+func axisLabel(name, unit string) string {
+	if unit == "" {
+		return name
+	}
+	return name + " (" + typesetUnit(unit) + ")"
+}
+
+// Groups converts a comparison into plot groups, one per mode (in the
+// mode's colour) and one for any mode, each with every variant's estimate.
+func Groups(pr *montecarlo.Paired) []plots.Group {
 	var groups []plots.Group
 	add := func(name string, get func(*montecarlo.Result) interval.Estimate) {
 		g := plots.Group{Name: name}
@@ -283,15 +366,9 @@ func CompareFigures(names []string, pr *montecarlo.Paired, sys units.System) ([]
 	}
 	for i, m := range pr.Modes {
 		add(m.Title(), func(r *montecarlo.Result) interval.Estimate { return r.Modes[i].Estimate })
+		groups[len(groups)-1].Key = m.Key()
 	}
 	add("any mode", func(r *montecarlo.Result) interval.Estimate { return r.Any })
-	p, err = plots.GroupPlot("Failure probability by mode and variant", names, groups)
-	if err != nil {
-		return nil, err
-	}
-	f2, err := figure(p, "compare-modes.png", "Failure probability of each mode for each variant with its confidence interval (log scale).")
-	if err != nil {
-		return nil, err
-	}
-	return []Figure{f1, f2}, nil
+	groups[len(groups)-1].Key = plots.AnyMode
+	return groups
 }

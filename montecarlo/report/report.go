@@ -36,7 +36,7 @@ const SchemaVersion = 2
 // Envelope is what every JSON document starts with.
 type Envelope struct {
 	SchemaVersion int    `json:"schema_version"`
-	Kind          string `json:"kind" jsonschema:"enum=nominal,enum=simulate,enum=sweep,enum=spread-limit,enum=compare,enum=spec,enum=drivers"`
+	Kind          string `json:"kind" jsonschema:"enum=nominal,enum=simulate,enum=sweep,enum=spread-limit,enum=compare,enum=fit,enum=life,enum=spec,enum=drivers"`
 	ToolVersion   string `json:"tool_version"`
 }
 
@@ -73,15 +73,20 @@ type InputDoc struct {
 	SharedBetweenBolts float64 `json:"shared_between_bolts,omitempty"`
 	Source             string  `json:"source,omitempty"`
 	Display            string  `json:"display"` // value or distribution with units, for people
+	// Data: the distribution was fitted to test data at load time.
+	Data *DataDoc `json:"data,omitempty"`
 }
 
 // DistDoc is a distribution with its parameters in the input's unit.
 type DistDoc struct {
-	Family string `json:"family" jsonschema:"enum=normal,enum=lognormal,enum=uniform,enum=triangular,enum=weibull,enum=truncnormal"`
+	Family string `json:"family" jsonschema:"enum=normal,enum=lognormal,enum=uniform,enum=triangular,enum=weibull,enum=truncnormal,enum=student-t,enum=log-t"`
 	// Parameters of the family: normal mean, sd; lognormal mu_log, sigma_log
 	// (of ln X in the input's unit); uniform min, max; triangular min, mode,
 	// max; weibull shape, scale; truncnormal mean, sd (of the parent), lower,
-	// upper.
+	// upper; student-t location, scale, dof; log-t mu_log, scale_log, dof
+	// (of ln X). The log-t has no finite mean: mean holds its median; where
+	// the sd is not finite (log-t; student-t with dof ≤ 2), sd holds half the
+	// width of the central 68.27 % interval.
 	Parameters map[string]float64 `json:"parameters"`
 	Mean       float64            `json:"mean"`
 	SD         float64            `json:"sd"`
@@ -138,6 +143,10 @@ func distDoc(d *montecarlo.Dist) *DistDoc {
 		p["shape"], p["scale"] = d.A, d.B
 	case montecarlo.TruncNormal:
 		p["mean"], p["sd"], p["lower"], p["upper"] = d.A, d.B, d.C, d.D
+	case montecarlo.StudentT:
+		p["location"], p["scale"], p["dof"] = d.A, d.B, d.C
+	case montecarlo.LogT:
+		p["mu_log"], p["scale_log"], p["dof"] = d.A, d.B, d.C
 	}
 	return &DistDoc{Family: d.Kind.String(), Parameters: p, Mean: d.Mean(), SD: d.StdDev()}
 }
@@ -149,6 +158,9 @@ func Inputs(s *scenario.Scenario, sys units.System) []InputDoc {
 	var out []InputDoc
 	in := s.Inputs()
 	for _, f := range s.Shown() {
+		if caseHeld(s, f.Path) {
+			continue
+		}
 		d := InputDoc{Path: f.Path, Label: f.Label, Dimension: f.Dim.Key(), Unit: internalUnit(f.Dim),
 			Nominal: *scenario.FieldPtr(in, f.Path), PerBolt: f.Role&montecarlo.PerBolt != 0,
 			Source: s.Sources[f.Path], Display: s.Describe(f.Path, sys)}
@@ -156,9 +168,10 @@ func Inputs(s *scenario.Scenario, sys units.System) []InputDoc {
 			d.Distribution = distDoc(&v.Dist)
 			d.SharedBetweenBolts = v.Shared
 		}
+		d.Data = dataDoc(s, f.Path, sys)
 		out = append(out, d)
 	}
-	return out
+	return append(out, caseInputs(s, sys)...)
 }
 
 // Joint documents the joint's description.
@@ -257,6 +270,7 @@ func writeInputs(w io.Writer, j JointDoc, inputs []InputDoc, sys units.System) {
 		rows = append(rows, []string{r.Label, r.Display, src})
 	}
 	writeColumns(w, rows)
+	writeDataLines(w, inputs) // fitdata.go
 }
 
 // writeColumns writes rows of cells indented by two spaces, each column as

@@ -13,7 +13,7 @@ func inputsSection(s *scenario.Scenario, j JointDoc, sys units.System) Section {
 	for _, r := range Inputs(s, sys) {
 		t.Rows = append(t.Rows, []string{r.Label, r.Display, r.Source})
 	}
-	sec := Section{Heading: "Inputs", Table: t, Paragraphs: jointLines(j, sys)}
+	sec := Section{Heading: "Inputs", Table: t, Paragraphs: append(jointLines(j, sys), dataParagraphs(s, sys)...)}
 	if s.Description != "" {
 		sec.Paragraphs = append([]string{s.Description}, sec.Paragraphs...)
 	}
@@ -64,7 +64,7 @@ func probTable(modes []ProbDoc) *Table {
 		if p.NominalSF != nil {
 			sf = fmtSF(*p.NominalSF)
 		}
-		t.Rows = append(t.Rows, []string{p.Title, FormatProb(p), formatCOV(p), formatInterval(p), fmt.Sprintf("%d / %d", p.Failures, p.Samples), sf})
+		t.Rows = append(t.Rows, []string{p.Title, FormatProb(p), formatCOV(p), formatInterval(p), countsCell(p), sf})
 	}
 	return t
 }
@@ -90,6 +90,10 @@ func SimulationReview(s *scenario.Scenario, doc SimDoc, figs []Figure, prov Prov
 		para = append(para, "Method: "+doc.MethodNote+".")
 	}
 	r.Sections = append(r.Sections, Section{Heading: "Failure probabilities", Table: probTable(doc.Modes), Paragraphs: para})
+	if len(doc.Cases) > 0 {
+		r.Sections = append(r.Sections, Section{Heading: "Load cases", Table: casesTable(doc.Cases),
+			Paragraphs: []string{"The static modes are checked in every load case, fatigue and fatigue_life in the first (the service case, whose loads the spectrum scales); the probabilities above are for all cases together (a mode fails when it fails in any case)."}})
+	}
 	if len(doc.Percentiles) > 0 {
 		head := []string{"quantity"}
 		for _, l := range doc.PercentileLevels {

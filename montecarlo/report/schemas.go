@@ -12,10 +12,14 @@ import (
 var Documents = map[string]any{
 	"nominal":  NominalDoc{},
 	"simulate": SimDoc{},
+	"part":     PartDoc{},
+	"rank":     RankDoc{},
 	"sweep":    SweepDoc{},
 	"compare":  CompareDoc{},
 	"spec":     SpecDoc{},
 	"drivers":  DriversDoc{},
+	"fit":      FitDoc{},
+	"life":     LifeDoc{},
 }
 
 // GenerateSchemas returns the JSON Schema of every document (reflected from

@@ -43,7 +43,7 @@ func ScenarioAppendix(s *scenario.Scenario) Appendix {
 	if name == "" {
 		name = "built-in example"
 	}
-	return Appendix{Heading: "Appendix: scenario file", Note: fmt.Sprintf("%s, SHA-256 %s, %d bytes, verbatim:", name, s.SHA256, len(s.Data)), Text: string(s.Data)}
+	return Appendix{Heading: "Appendix: scenario file", Note: fmt.Sprintf("%s, SHA-256 %s, %d bytes, verbatim:", name, s.SHA256, len(s.Bytes)), Text: string(s.Bytes)}
 }
 
 // sourceKind shortens an input's source to its kind: file, preset, default or data.

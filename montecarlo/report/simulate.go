@@ -86,9 +86,11 @@ type SimDoc struct {
 	BoltsPerSample   int     `json:"bolt_evaluations_per_sample"`
 	// BinnedSamples is the number of samples behind the percentiles: every
 	// sample, or those of one chunk in BinStride in a large run.
-	BinnedSamples    int64            `json:"binned_samples"`
-	BinStride        int64            `json:"bin_stride"`
-	Modes            []ProbDoc        `json:"modes"` // reported modes in report order, then "any"
+	BinnedSamples int64     `json:"binned_samples"`
+	BinStride     int64     `json:"bin_stride"`
+	Modes         []ProbDoc `json:"modes"` // reported modes in report order, then "any"
+	// Cases are the per-load-case probabilities (files with loads.cases).
+	Cases            []CaseDoc        `json:"cases,omitempty"`
 	PercentileLevels []float64        `json:"percentile_levels"`
 	Percentiles      []PercentilesDoc `json:"percentiles"`
 	// PercentileSource says where the percentiles come from: "every
@@ -172,6 +174,7 @@ func Simulation(s *scenario.Scenario, r *montecarlo.Result, run Run, version str
 		}
 	}
 	doc.PercentileSource = percentileSource(r)
+	doc.Cases = caseDocs(r)
 	if r.Rare != nil {
 		doc.DesignPoints, doc.Diagnostics = rareDocs(r.Rare)
 		doc.Warnings = append(doc.Warnings, r.Rare.Warnings...)
@@ -298,6 +301,15 @@ func formatInterval(p ProbDoc) string {
 	return fmt.Sprintf("[%.2e, %.2e]", p.CILow, p.CIHigh)
 }
 
+// countsCell is the "failures / samples" cell of a mode; "—" when the
+// estimate is no count (subset simulation: a product of level shares).
+func countsCell(p ProbDoc) string {
+	if p.Samples == 0 {
+		return "—"
+	}
+	return fmt.Sprintf("%d / %d", p.Failures, p.Samples)
+}
+
 func formatCOV(p ProbDoc) string {
 	if p.COV == nil {
 		return "-"
@@ -364,7 +376,7 @@ func WriteSimulation(w io.Writer, s *scenario.Scenario, doc SimDoc, sys units.Sy
 		if p.NominalSF != nil {
 			sf = fmtSF(*p.NominalSF)
 		}
-		fmt.Fprintf(tw, "  %s\t%s\t%s\t%s\t%d / %d\t%s\t\n", p.Title, FormatProb(p), formatCOV(p), formatInterval(p), p.Failures, p.Samples, sf)
+		fmt.Fprintf(tw, "  %s\t%s\t%s\t%s\t%s\t%s\t\n", p.Title, FormatProb(p), formatCOV(p), formatInterval(p), countsCell(p), sf)
 	}
 	tw.Flush()
 	perBolt := false
@@ -383,6 +395,7 @@ func WriteSimulation(w io.Writer, s *scenario.Scenario, doc SimDoc, sys units.Sy
 		}
 		tw.Flush()
 	}
+	writeCases(w, doc.Cases)
 	if len(doc.DesignPoints) > 0 {
 		writeDesignPoints(w, doc.DesignPoints, sys)
 	}

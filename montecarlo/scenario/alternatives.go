@@ -58,7 +58,7 @@ func (s *Scenario) Alternative(name string, sets map[string]string) (*Scenario, 
 		}
 		return nil, err
 	}
-	out.Variant, out.Name, out.SHA256, out.Data = name, s.Name, s.SHA256, s.Data
+	out.Variant, out.Name, out.SHA256, out.Bytes = name, s.Name, s.SHA256, s.Bytes
 	out.raw, out.parser = r, s.parser
 	return out, nil
 }

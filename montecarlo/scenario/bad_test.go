@@ -37,7 +37,7 @@ func TestBadFiles(t *testing.T) {
 			if len(wants) == 0 {
 				t.Fatal("the file names no expected message (# want: … on its first lines)")
 			}
-			s, err := Parse(path, data)
+			s, err := parse(path, data, filepath.Dir(path)) // as Load: data files beside the scenario
 			if err == nil {
 				t.Fatalf("accepted; want an error mentioning %q", wants)
 			}

@@ -49,7 +49,7 @@ func (p *parser) buildOne(r rawDoc) (*Scenario, error) {
 	s := &Scenario{File: p.file, Sources: map[string]string{}}
 	b := &builder{p: p, r: r, s: s, in: &s.Problem.Base, given: map[string]bool{}}
 	for _, section := range []func() error{
-		b.header, b.registry, b.bolt, b.members, b.geometry, b.loads, b.tightening, b.service, b.fatigue, b.study, b.correlations, b.check,
+		b.header, b.registry, b.bolt, b.members, b.geometry, b.loadsWithCases, b.tightening, b.service, b.fatigue, b.study, b.correlations, b.check, b.life,
 	} {
 		if err := section(); err != nil {
 			return nil, err
@@ -112,7 +112,7 @@ func (b *builder) registry() error {
 				continue
 			}
 		}
-		v, d, shared, err := b.p.value(b.r, f)
+		v, d, shared, err := b.value(f) // data.go
 		if err != nil {
 			if lim, ok := fieldLimits[f.path]; ok {
 				var e *Error

@@ -30,6 +30,8 @@ func (s *Scenario) NotChecked() []Unchecked {
 		}
 		key := m.Key()
 		switch {
+		case m == model.FatigueLife:
+			continue // listed with the service life (fatigue.curve) only
 		case m == model.Separation:
 			add(key, "no axial load (loads.axial_max is 0)")
 		case m == model.Fatigue:

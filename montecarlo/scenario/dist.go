@@ -80,7 +80,7 @@ func (p *parser) dist(n *yaml.Node, path string, dim units.Dim) (montecarlo.Dist
 		kindName = strings.ToLower(strings.TrimSpace(v.Value))
 	}
 	kind, err := montecarlo.ParseKind(kindName)
-	if err != nil || kind == montecarlo.Fixed {
+	if err != nil || !slices.Contains(familyNames, kind.String()) {
 		return montecarlo.Dist{}, 0, p.errf(n.Line, path+".dist", kindName, "allowed: %s%s", strings.Join(familyNames, ", "), suggest(kindName, familyNames))
 	}
 	dr.kind = kind

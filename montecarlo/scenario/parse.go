@@ -61,6 +61,8 @@ var sectionKeys = func() map[string][]string {
 		"service":    {},
 		"study":      {"samples", "seed", "confidence", "precision", "target_probability", "target"},
 	}
+	keys["fatigue"] = append(keys["fatigue"], lifeFatigueKeys...)
+	keys["loads"] = append(keys["loads"], lifeLoadKeys...)
 	for k, v := range nestedKeys {
 		keys[k] = append([]string(nil), v...)
 	}
@@ -100,6 +102,8 @@ func knownPath(path string) bool {
 
 type parser struct {
 	file string
+	dir  string                 // folder of data files given by relative paths
+	fits map[string]*DataSource // data inputs fitted so far (variants share them)
 }
 
 func (p *parser) errf(line int, field, value, format string, args ...any) *Error {

@@ -12,6 +12,7 @@ import (
 	"fmt"
 	"io"
 	"os"
+	"path/filepath"
 	"strings"
 	"unicode/utf8"
 
@@ -61,14 +62,19 @@ type Scenario struct {
 	// (members.roughness; 0: not given). It chooses the row of the embedding
 	// estimate (VDI 2230-1 Table 5).
 	Roughness float64
+	// Data lists the inputs fitted to test data at load time (data.go).
+	Data []DataSource
+	// Life is the service-life problem (fatigue.curve, fatigue.design_life,
+	// loads.spectrum); nil when the file gives no curve.
+	Life *montecarlo.LifeSpec
 	// given holds the registry paths the file sets.
 	given map[string]bool
 
 	Variants []*Scenario // named variants (compare); each is a complete scenario
 	Variant  string      // this scenario's variant name, "" for the base
 
-	// Data is the file's bytes, verbatim (for the report's appendix).
-	Data []byte
+	// Bytes is the file's bytes, verbatim (for the report's appendix).
+	Bytes []byte
 	// raw and parser rebuild the scenario with changed keys (Alternative).
 	raw    rawDoc
 	parser *parser
@@ -93,12 +99,16 @@ func Load(path string) (*Scenario, error) {
 	if err != nil {
 		return nil, fmt.Errorf("cannot read scenario: %w", err)
 	}
-	return Parse(path, data)
+	return parse(path, data, filepath.Dir(path))
 }
 
 // Parse validates a scenario held in memory; name is used in messages.
-func Parse(name string, data []byte) (*Scenario, error) {
-	p := &parser{file: name}
+// Data files it references are read relative to the working folder.
+func Parse(name string, data []byte) (*Scenario, error) { return parse(name, data, "") }
+
+// parse reads a scenario whose data files lie relative to dir.
+func parse(name string, data []byte, dir string) (*Scenario, error) {
+	p := &parser{file: name, dir: dir}
 	if len(bytes.TrimSpace(data)) == 0 {
 		return nil, p.errf(0, "", "", "the file is empty; a scenario needs at least bolt, members and tightening")
 	}
@@ -138,7 +148,7 @@ func Parse(name string, data []byte) (*Scenario, error) {
 	}
 	sum := sha256.Sum256(data)
 	s.SHA256 = hex.EncodeToString(sum[:])
-	s.Data = data
+	s.Bytes = data
 	for _, v := range s.Variants {
 		v.SHA256 = s.SHA256
 	}

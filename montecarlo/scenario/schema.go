@@ -1,6 +1,7 @@
 package scenario
 
 import (
+	"maps"
 	"sort"
 	"strings"
 
@@ -75,6 +76,7 @@ func wordKeys() map[string]keyKind {
 // two cannot drift apart.
 func Schema() map[string]any {
 	words := wordKeys()
+	maps.Copy(words, lifeWordKeys())
 	props := func(section string) map[string]any {
 		out := map[string]any{}
 		for _, k := range sectionKeys[section] {
@@ -130,7 +132,8 @@ func Schema() map[string]any {
 		"set":  map[string]any{"type": "object", "description": "dotted input paths and their values or distributions"},
 	})}
 	defs := map[string]any{
-		"fraction": map[string]any{"type": []string{"number", "string"}, "description": "a number or a percentage such as 5%"},
+		"fraction":   map[string]any{"type": []string{"number", "string"}, "description": "a number or a percentage such as 5%"},
+		"data_input": dataSchema(),
 	}
 	var dims []units.Dim
 	seen := map[units.Dim]bool{}
@@ -162,7 +165,7 @@ func Schema() map[string]any {
 			}
 			dp[k] = map[string]any{"type": []string{"number", "string"}}
 		}
-		defs["value_"+name] = map[string]any{"oneOf": []any{map[string]any{"$ref": "#/$defs/quantity_" + name}, dist}}
+		defs["value_"+name] = map[string]any{"oneOf": []any{map[string]any{"$ref": "#/$defs/quantity_" + name}, dist, map[string]any{"$ref": "#/$defs/data_input"}}}
 	}
 	return map[string]any{
 		"$schema":              "https://json-schema.org/draft/2020-12/schema",

@@ -87,7 +87,8 @@ func findVar(p *montecarlo.Problem, path string) (int, bool) {
 
 // Apply returns a copy of p changed to step value x.
 func (v *Vary) Apply(p *montecarlo.Problem, x float64) (*montecarlo.Problem, error) {
-	q := &montecarlo.Problem{Base: p.Base, Vars: append([]montecarlo.Var(nil), p.Vars...), Corr: p.Corr}
+	q := &montecarlo.Problem{Base: p.Base, Vars: append([]montecarlo.Var(nil), p.Vars...), Corr: p.Corr,
+		Cases: append([]montecarlo.Case(nil), p.Cases...), Life: p.Life}
 	switch v.Kind {
 	case Input:
 		if i, ok := findVar(q, v.Path); ok {
@@ -107,6 +108,11 @@ func (v *Vary) Apply(p *montecarlo.Problem, x float64) (*montecarlo.Problem, err
 		*v.Field(&q.Base) = x
 	case Load:
 		q.Base.ScaleLoads(x)
+		for i := range q.Cases { // the load cases' values as the loads (temperatures unchanged)
+			for _, sl := range []montecarlo.CaseSlot{montecarlo.CaseAxialMax, montecarlo.CaseAxialMin, montecarlo.CaseShear} {
+				q.Cases[i].Values[sl] *= x
+			}
+		}
 		for i := range q.Vars {
 			if q.Vars[i].Role&montecarlo.Load == 0 {
 				continue
