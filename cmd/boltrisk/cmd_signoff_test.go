@@ -16,7 +16,7 @@ import (
 // verbatim with its SHA-256. The print check is skipped, with the reason,
 // when Chromium or poppler-utils is missing.
 func TestSignOffPage(t *testing.T) {
-	for _, ex := range []string{"cover-flange", "splice-plate"} {
+	for _, ex := range []string{"cover-flange", "splice-plate", "service-life"} {
 		dir := filepath.Join(t.TempDir(), "rev")
 		code, _, errs := runCLI("simulate", "--example", ex, "--samples", "20000", "--method", "crude", "--drivers", "--sign-off", "1e-3", "--out", dir, "--quiet")
 		if code != 0 {

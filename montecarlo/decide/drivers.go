@@ -400,7 +400,9 @@ func RunDrivers(ctx context.Context, p *montecarlo.Problem, o DriverOptions) (*D
 	}
 	if !o.NoOmit {
 		for g := range ng {
-			q := &montecarlo.Problem{Base: p.Base, Vars: append([]montecarlo.Var(nil), p.Vars...), Corr: p.Corr}
+			qq := *p // every field: load cases, the life problem
+			qq.Vars = append([]montecarlo.Var(nil), p.Vars...)
+			q := &qq
 			q.Vars[g].Dist = degenerate(q.Vars[g].Dist)
 			rs := s
 			rs.ProbabilitiesOnly, rs.Method = true, o.Method
