@@ -107,7 +107,7 @@ func TestMergePartial(t *testing.T) {
 	dir := t.TempDir()
 	files := runParts(t, dir, 3, "simulate", "--example", "cover-flange", "--samples", "60000")
 	code, _, errs := runCLI("merge", files[0], files[2])
-	if code != 1 || !strings.Contains(errs, "1 of 3 parts missing (2)") {
+	if code != 1 || !strings.Contains(errs, "1 of 3 parts missing (K = 2)") {
 		t.Errorf("missing part: exit %d, %s", code, errs)
 	}
 	code, out, errs := runCLI("merge", "--json", "--allow-missing", files[0], files[2])

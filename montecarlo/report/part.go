@@ -492,7 +492,7 @@ func CheckParts(files []string, docs []*PartDoc, version string, allowMissing bo
 		}
 	}
 	if len(ps.Missing) > 0 && !allowMissing {
-		return nil, fmt.Errorf("%d of %d parts missing (%s); give every part-K-of-%d.json, or --allow-missing for a partial result", len(ps.Missing), ref.Parts, rangeList(ps.Missing), ref.Parts)
+		return nil, fmt.Errorf("%d of %d parts missing (K = %s); give every part-K-of-%d.json, or --allow-missing for a partial result", len(ps.Missing), ref.Parts, rangeList(ps.Missing), ref.Parts)
 	}
 	return ps, nil
 }
