@@ -202,7 +202,7 @@ func TestREADMEDecisions(t *testing.T) {
 	if j := strings.Index(sec[3:], "\n## "); j >= 0 {
 		sec = sec[:j+3]
 	}
-	const line = "Torque 52.6 N*m ± 10 N*m (±3σ; tool torque-wrench or more precise, dry threads) — every failure mode together below 0.003, upper 95 % confidence bound"
+	const line = "Torque 52.6 N·m ± 10 N·m (±3σ; tool torque-wrench or more precise, dry threads) — probability of any failure at most 0.003 at 95 % confidence (upper bound)"
 	if !strings.Contains(sec, "    "+line) {
 		t.Fatal("the README's Decisions section lacks the callout line")
 	}

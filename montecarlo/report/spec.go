@@ -173,6 +173,7 @@ func CalloutLine(doc SpecDoc, condition string, sys units.System) string {
 	if dim == units.Force && nom >= 1000 {
 		nom, tol, u = nom/1000, tol/1000, map[string]string{"N": "kN", "lbf": "kip"}[u]
 	}
+	u = strings.ReplaceAll(u, "*", "·") // typeset for the drawing: N·m, lbf·ft
 	what := "Torque"
 	if c.Quantity == "preload" {
 		what = "Preload"
@@ -187,7 +188,7 @@ func CalloutLine(doc SpecDoc, condition string, sys units.System) string {
 	if condition != "" {
 		how = append(how, condition+" threads")
 	}
-	return fmt.Sprintf("%s %s %s ± %s %s (±3σ; %s) — every failure mode together below %s, upper %.4g %% confidence bound",
+	return fmt.Sprintf("%s %s %s ± %s %s (±3σ; %s) — probability of any failure at most %s at %.4g %% confidence (upper bound)",
 		what, units.Sig(nom, 3), u, units.Sig(tol, 2), u, strings.Join(how, ", "), fmtTarget(doc.Target), 100*doc.Confidence)
 }
 
