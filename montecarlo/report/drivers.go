@@ -3,7 +3,6 @@ package report
 import (
 	"fmt"
 	"io"
-	"strings"
 
 	"boltrisk/model/units"
 	"boltrisk/montecarlo/decide"
@@ -193,7 +192,7 @@ func DriversFigure(b DriversBody) (Figure, error) {
 	}
 	var series []string
 	for _, in := range b.Modes[0].Inputs {
-		series = append(series, strings.TrimPrefix(strings.TrimPrefix(in.Input, "tightening."), "loads."))
+		series = append(series, scenario.FieldLabel(in.Input))
 	}
 	var groups []plots.BarGroup
 	for _, m := range b.Modes {

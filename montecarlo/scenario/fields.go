@@ -252,6 +252,15 @@ func FieldDim(path string) units.Dim {
 	return f.dim
 }
 
+// FieldLabel returns the report label of an input path ("nut factor"),
+// or the path itself when there is no such input.
+func FieldLabel(path string) string {
+	if f, ok := lookupField(path); ok && f.label != "" {
+		return f.label
+	}
+	return path
+}
+
 // FieldPtr returns the address of the input at path inside in, or nil if
 // there is no such input.
 func FieldPtr(in *model.Inputs, path string) *float64 {
