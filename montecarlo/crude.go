@@ -300,6 +300,25 @@ type crudeWorker struct {
 	_         [64]byte
 }
 
+// newCrudeWorkers returns the settings' workers of a crude run, each with
+// empty sketches shaped by the pilot (sk; nil and stride 0 for a run of
+// probabilities only), and the bin stride of the budget.
+func newCrudeWorkers(k *Kernel, s Settings) (sk *sketches, stride int64, workers []*crudeWorker) {
+	if !s.ProbabilitiesOnly {
+		sk = pilot(k, s.Seed)
+		stride = binStride(s.Samples)
+	}
+	workers = make([]*crudeWorker, s.Workers)
+	for i := range workers {
+		var own *sketches
+		if sk != nil {
+			own = sk.empty()
+		}
+		workers[i] = newCrudeWorker(k, own, stride)
+	}
+	return sk, stride, workers
+}
+
 func newCrudeWorker(k *Kernel, sk *sketches, stride int64) *crudeWorker {
 	w := &crudeWorker{k: k, ev: k.NewEvaluator(), block: blockLen(k.Dim()), sk: sk, binStride: stride}
 	d := k.Dim()
@@ -347,19 +366,8 @@ func runCrude(ctx context.Context, k *Kernel, s Settings) (*Result, error) {
 	start := time.Now()
 	res := &Result{Method: "crude", Seed: s.Seed, Workers: s.Workers, Confidence: s.Confidence, Precision: s.Precision,
 		NBolts: k.nBolts, Nominal: k.Nominal()}
-	var sk *sketches
-	if !s.ProbabilitiesOnly {
-		sk = pilot(k, s.Seed)
-		res.BinStride = binStride(s.Samples)
-	}
-	workers := make([]*crudeWorker, s.Workers)
-	for i := range workers {
-		var own *sketches
-		if sk != nil {
-			own = sk.empty()
-		}
-		workers[i] = newCrudeWorker(k, own, res.BinStride)
-	}
+	sk, stride, workers := newCrudeWorkers(k, s)
+	res.BinStride = stride
 	var stop func() bool
 	if s.Precision > 0 {
 		stop = func() bool {

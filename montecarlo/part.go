@@ -144,19 +144,8 @@ func RunPart(ctx context.Context, p *Problem, s Settings, part, n int) (*PartSta
 	c0, c1 := PartChunks(s.Samples, part, n)
 	st := &PartState{Method: "crude", MethodNote: note, Part: part, Parts: n, FirstChunk: c0, EndChunk: c1,
 		Chunks: make([]ChunkSum, c1-c0)}
-	var sk *sketches
-	if !s.ProbabilitiesOnly {
-		sk = pilot(k, s.Seed)
-		st.BinStride = binStride(s.Samples)
-	}
-	workers := make([]*crudeWorker, s.Workers)
-	for i := range workers {
-		var own *sketches
-		if sk != nil {
-			own = sk.empty()
-		}
-		workers[i] = newCrudeWorker(k, own, st.BinStride)
-	}
+	sk, stride, workers := newCrudeWorkers(k, s)
+	st.BinStride = stride
 	var next, done atomic.Int64
 	next.Store(c0)
 	var wg sync.WaitGroup

@@ -196,15 +196,10 @@ func runRank(ctx context.Context, opts *RankOptions) error {
 func writeJointReview(stage, slug string, s *scenario.Scenario, res *montecarlo.Result, doc report.SimDoc, set montecarlo.Settings, sys units.System, o *outFlags) error {
 	var figs []report.Figure
 	if res.HasDistributions() {
-		pf, _, err := report.PreloadFigure(s, res, sys)
-		if err != nil {
+		var err error
+		if figs, err = report.SimulationFigures(s, res, sys, set.Interval); err != nil {
 			return err
 		}
-		sf, err := report.SafetyFactorFigures(s, res)
-		if err != nil {
-			return err
-		}
-		figs = append(append(figs, pf), sf...)
 	}
 	ss := []*scenario.Scenario{s}
 	rev := report.SimulationReview(s, doc, figs, o.provenance(ss, res.Seed, set.Samples, res.Samples, res.Workers), sys)

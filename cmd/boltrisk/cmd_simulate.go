@@ -149,21 +149,9 @@ func writeSimulationReview(ctx context.Context, opts *SimulateOptions, s *scenar
 	sys, _ := opts.system(s)
 	var figs []report.Figure
 	if res.HasDistributions() {
-		pf, _, err := report.PreloadFigure(s, res, sys)
-		if err != nil {
+		var err error
+		if figs, err = report.SimulationFigures(s, res, sys, set.Interval); err != nil {
 			return err
-		}
-		sf, err := report.SafetyFactorFigures(s, res)
-		if err != nil {
-			return err
-		}
-		ex, err := report.ExceedanceFigures(s, res, set.Interval)
-		if err != nil {
-			return err
-		}
-		figs = append(figs, pf)
-		for i := range sf { // each mode's histogram beside its lower tail
-			figs = append(figs, sf[i], ex[i])
 		}
 	}
 	if opts.LoadCurve != "" && !res.Partial {

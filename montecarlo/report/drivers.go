@@ -158,17 +158,7 @@ func DriversSections(b DriversBody) []Section {
 // WriteDriversBody writes the drivers as text.
 func WriteDriversBody(w io.Writer, b DriversBody) {
 	for i, sec := range DriversSections(b) {
-		fmt.Fprintln(w, sec.Heading)
-		for _, p := range sec.Paragraphs {
-			fmt.Fprintf(w, "  %s\n", p)
-		}
-		if sec.Table != nil {
-			rows := append([][]string{sec.Table.Header}, sec.Table.Rows...)
-			for i := range rows {
-				rows[i] = append([]string{" "}, rows[i]...)
-			}
-			writeColumns(w, rows)
-		}
+		writeTextSection(w, sec)
 		if i < len(b.Modes) {
 			fmt.Fprintln(w)
 		}

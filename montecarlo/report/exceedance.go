@@ -5,6 +5,7 @@ import (
 	"math"
 	"strconv"
 
+	"boltrisk/model/units"
 	"boltrisk/montecarlo"
 	"boltrisk/montecarlo/interval"
 	"boltrisk/montecarlo/quantile"
@@ -133,4 +134,27 @@ func ExceedanceFigure(s *scenario.Scenario, r *montecarlo.Result, i int, method 
 		"Probability that the safety factor of %s lies below x (log scale), with its pointwise band; the mode fails left of the line at 1, and the point there is the run's failure estimate.",
 		lowerFirst(modeName(s, m.Mode))))
 	return f, spec, err
+}
+
+// SimulationFigures are the pictures of a simulation with distributions:
+// the residual preload, then each mode's safety-factor histogram beside
+// its lower tail (exceedance picture, intervals of the given method).
+func SimulationFigures(s *scenario.Scenario, r *montecarlo.Result, sys units.System, method interval.Method) ([]Figure, error) {
+	pf, _, err := PreloadFigure(s, r, sys)
+	if err != nil {
+		return nil, err
+	}
+	sf, err := SafetyFactorFigures(s, r)
+	if err != nil {
+		return nil, err
+	}
+	ex, err := ExceedanceFigures(s, r, method)
+	if err != nil {
+		return nil, err
+	}
+	figs := []Figure{pf}
+	for i := range sf {
+		figs = append(figs, sf[i], ex[i])
+	}
+	return figs, nil
 }

@@ -207,21 +207,27 @@ func WriteSpec(w io.Writer, s *scenario.Scenario, doc SpecDoc, sys units.System)
 	}
 	fmt.Fprintln(w)
 	for _, sec := range specSections(doc, sys) {
-		fmt.Fprintf(w, "%s\n", sec.Heading)
-		for _, p := range sec.Paragraphs {
-			fmt.Fprintf(w, "  %s\n", p)
-		}
-		if sec.Table != nil {
-			rows := append([][]string{sec.Table.Header}, sec.Table.Rows...)
-			for i := range rows {
-				rows[i] = append([]string{" "}, rows[i]...)
-			}
-			writeColumns(w, rows)
-		}
+		writeTextSection(w, sec)
 		fmt.Fprintln(w)
 	}
 	writeWarnings(w, doc.Warnings)
 	WriteCaution(w)
+}
+
+// writeTextSection writes a review section as text: the heading, its
+// paragraphs indented, its table in aligned columns.
+func writeTextSection(w io.Writer, sec Section) {
+	fmt.Fprintln(w, sec.Heading)
+	for _, p := range sec.Paragraphs {
+		fmt.Fprintf(w, "  %s\n", p)
+	}
+	if sec.Table != nil {
+		rows := append([][]string{sec.Table.Header}, sec.Table.Rows...)
+		for i := range rows {
+			rows[i] = append([]string{" "}, rows[i]...)
+		}
+		writeColumns(w, rows)
+	}
 }
 
 // specSections are the sections of the spec result (text and review).
