@@ -3,6 +3,7 @@ package main
 import (
 	"fmt"
 	"io"
+	"strings"
 
 	"github.com/spf13/cobra"
 
@@ -11,10 +12,10 @@ import (
 
 func newSchemaCmd(stdout io.Writer) *cobra.Command {
 	return &cobra.Command{
-		Use:   "schema [scenario|nominal|simulate|sweep|compare]",
+		Use:   "schema [NAME]",
 		Short: "Print the JSON Schema of the scenario file or of a JSON document",
 		Long: `Print the JSON Schema (draft 2020-12) of the scenario file or of the JSON a
-command writes with --json. Without a name, list the schemas. The example
+command writes with --json (NAME: ` + strings.Join(schema.Names(), ", ") + `). Without a name, list the schemas. The example
 scenario files carry the line that YAML editors read to use the scenario schema:
   # yaml-language-server: $schema=<path or URL of scenario.schema.json>`,
 		Args:      cobra.MaximumNArgs(1),
