@@ -517,15 +517,22 @@ func (e *Evaluator) detail(o *Out, j, nm, nb int) {
 			}
 			continue
 		}
-		w := -1
+		if uint(m) >= uint(model.NumModes) {
+			continue // never: lets the compiler drop the bounds checks below
+		}
+		// The worst bolt's capacity and demand stay in registers.
+		wc, wd, found := 0.0, 0.0, false
 		for b := range e.bolts {
 			br := &e.bolts[b]
-			if br.Active[m] && (w < 0 || br.Capacity[m]*e.bolts[w].Demand[m] < e.bolts[w].Capacity[m]*br.Demand[m]) {
-				w = b
+			if !br.Active[m] {
+				continue
+			}
+			if c, d := br.Capacity[m], br.Demand[m]; !found || c*wd < wc*d {
+				wc, wd, found = c, d, true
 			}
 		}
-		if w >= 0 {
-			sf[i] = e.bolts[w].Capacity[m] / e.bolts[w].Demand[m]
+		if found {
+			sf[i] = wc / wd
 		}
 	}
 	for b := range e.bolts {
