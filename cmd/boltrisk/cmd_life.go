@@ -62,7 +62,7 @@ Results are reproducible: the same --seed gives identical numbers for any
 			return runLife(cmd.Context(), opts)
 		},
 	}
-	opts.addFlags(cmd, false)
+	opts.addFlags(cmd, true)
 	opts.Run.add(cmd, false, "")
 	opts.Output.add(cmd)
 	cmd.Flags().StringSliceVar(&opts.BLife, "b-life", nil, "also report the B_p life for these failure fractions, e.g. 0.05 or 5% (B10 and B1 are always reported)")
@@ -119,7 +119,8 @@ func runLife(ctx context.Context, opts *LifeOptions) error {
 			return err
 		}
 	}
-	return opts.finish(doc, func(w io.Writer) { report.WriteLife(w, s, doc, sys) }, nil, res.Partial, inputFiles(s))
+	return opts.finish(doc, func(w io.Writer) { report.WriteLife(w, s, doc, sys) },
+		func(w io.Writer) error { return report.WriteLifeCSV(w, doc) }, res.Partial, inputFiles(s))
 }
 
 func scenarioName(s *scenario.Scenario) string {

@@ -1,9 +1,11 @@
 package main
 
 import (
+	"encoding/csv"
 	"encoding/json"
 	"os"
 	"path/filepath"
+	"strconv"
 	"strings"
 	"testing"
 
@@ -103,5 +105,28 @@ func TestSimulateWithCasesAndLife(t *testing.T) {
 	}
 	if !found {
 		t.Error("fatigue_life not reported")
+	}
+}
+
+// life --csv - writes R(N) on the document's grid instead of the report.
+func TestLifeCSV(t *testing.T) {
+	code, out, errs := runCLI("life", "--example", "service-life", "--samples", "2e4", "--quiet", "--csv", "-")
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errs)
+	}
+	recs, err := csv.NewReader(strings.NewReader(out)).ReadAll()
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(recs) < 50 || strings.Join(recs[0], ",") != "cycles,reliability,ci_low,ci_high" {
+		t.Fatalf("%d rows, header %v", len(recs), recs[0])
+	}
+	prev := 2.0
+	for _, r := range recs[1:] {
+		v, err := strconv.ParseFloat(r[1], 64)
+		if err != nil || v > prev {
+			t.Fatalf("R(N) not a non-increasing number: %v", r)
+		}
+		prev = v
 	}
 }

@@ -91,3 +91,13 @@ func WriteCompareCSV(w io.Writer, doc CompareDoc) error {
 func WriteRowsCSV(w io.Writer, header []string, rows [][]string) error {
 	return writeCSV(w, append([][]string{header}, rows...))
 }
+
+// WriteLifeCSV writes the reliability curve of a service-life run: one row
+// per point of the document's grid (cycles, R(N) and its interval).
+func WriteLifeCSV(w io.Writer, doc LifeDoc) error {
+	rows := [][]string{{"cycles", "reliability", "ci_low", "ci_high"}}
+	for _, p := range doc.Reliability {
+		rows = append(rows, []string{num(p.Cycles), num(p.Reliability), num(p.Lower), num(p.Upper)})
+	}
+	return writeCSV(w, rows)
+}
