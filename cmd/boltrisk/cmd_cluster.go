@@ -6,6 +6,7 @@ import (
 	"path/filepath"
 	"regexp"
 	"strings"
+	"time"
 
 	"github.com/spf13/cobra"
 
@@ -29,6 +30,7 @@ type ClusterOptions struct {
 	Dir       string
 	Result    string
 	Binary    string
+	Deadline  time.Duration
 	Extra     []string
 }
 
@@ -76,6 +78,7 @@ fatigue). Nothing is submitted; read the script, then run it.`,
 	fl.StringVar(&o.Dir, "dir", "boltrisk-parts", "folder of the part files and logs")
 	fl.StringVar(&o.Result, "result", "result.json", "file the merge writes (JSON)")
 	fl.StringVar(&o.Binary, "boltrisk", "boltrisk", "path of the boltrisk program on the nodes (slurm)")
+	fl.DurationVar(&o.Deadline, "merge-deadline", 24*time.Hour, "kubernetes: the merge Job gives up (fails) when the parts are not all there after this long, e.g. 6h")
 	return cmd
 }
 
@@ -95,6 +98,9 @@ func runClusterScript(o *ClusterOptions, engine, file string) error {
 	}
 	if o.CPUs < 1 || o.CPUs > 1024 {
 		return usagef("--cpus %d: cores per task, 1 … 1024", o.CPUs)
+	}
+	if o.Deadline < time.Minute {
+		return usagef("--merge-deadline %v: at least 1m (how long the merge Job waits for the parts)", o.Deadline)
 	}
 	s, err := scenario.Load(file)
 	if err != nil {
@@ -201,7 +207,8 @@ func writeKubernetes(o *ClusterOptions, file string, args []string) {
 	par := min(n, 64)
 	fmt.Fprintf(w, `# Written by 'boltrisk cluster-script kubernetes': %s in %d parts as an
 # Indexed Job (each pod's JOB_COMPLETION_INDEX 0 … %d is part index+1 of %d),
-# and a merge Job that waits until all %d part files are on the shared volume.
+# and a merge Job that waits until all %d part files are on the shared volume
+# (and fails after activeDeadlineSeconds if a part never arrives).
 # Apply both: kubectl apply -f THIS-FILE. The claim %s (ReadWriteMany) holds the
 # scenario at %s; parts land in %s, the merged result in %s/%s.
 apiVersion: batch/v1
@@ -232,6 +239,7 @@ metadata:
   name: boltrisk-merge
 spec:
   backoffLimit: 2
+  activeDeadlineSeconds: %d
   template:
     spec:
       restartPolicy: Never
@@ -249,5 +257,5 @@ spec:
       volumes: [{name: data, persistentVolumeClaim: {claimName: %s}}]
 `, filepath.Base(file), n, n-1, n, n, o.Claim, path, dir, mount, o.Result,
 		n, par, o.Image, dir, q(cmd), o.CPUs, mount, o.Claim,
-		o.Image, dir, n, n, o.Result, o.Result, o.Result, mount, o.Claim)
+		int64(o.Deadline.Seconds()), o.Image, dir, n, n, o.Result, o.Result, o.Result, mount, o.Claim)
 }

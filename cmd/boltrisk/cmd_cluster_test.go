@@ -43,6 +43,7 @@ func TestClusterScript(t *testing.T) {
 			Spec struct {
 				CompletionMode string `yaml:"completionMode"`
 				Completions    int    `yaml:"completions"`
+				Deadline       int    `yaml:"activeDeadlineSeconds"`
 			} `yaml:"spec"`
 		}
 		if err := dec.Decode(&job); err != nil {
@@ -51,6 +52,9 @@ func TestClusterScript(t *testing.T) {
 		kinds = append(kinds, job.Kind+"/"+job.Spec.CompletionMode)
 		if job.Spec.CompletionMode == "Indexed" && job.Spec.Completions != 8 {
 			t.Errorf("completions %d", job.Spec.Completions)
+		}
+		if job.Spec.CompletionMode == "" && job.Spec.Deadline != 86400 {
+			t.Errorf("merge Job activeDeadlineSeconds %d, want the default 24 h", job.Spec.Deadline) // it must not wait forever for a failed part
 		}
 	}
 	if strings.Join(kinds, " ") != "Job/Indexed Job/" {
@@ -62,6 +66,7 @@ func TestClusterScript(t *testing.T) {
 	}{
 		{[]string{"cluster-script", "slurm", file, "--parts", "0"}, "--parts 0"},
 		{[]string{"cluster-script", "pbs", file, "--parts", "4"}, "allowed slurm or kubernetes"},
+		{[]string{"cluster-script", "kubernetes", file, "--parts", "4", "--merge-deadline", "10s"}, "--merge-deadline 10s: at least 1m"},
 		{[]string{"cluster-script", "slurm", file, "--parts", "4", "--", "--precision", "5%"}, "cannot be passed"},
 		{[]string{"cluster-script", "slurm", file, "--parts", "4", "--samples", "x"}, "--samples"},
 	} {
