@@ -35,8 +35,24 @@ type NominalDoc struct {
 	Inputs   []InputDoc   `json:"inputs"`
 	NominalBody
 	Checks
-	Warnings []string `json:"warnings"`
-	Caution  string   `json:"caution"`
+	// Life is the nominal service life when the scenario gives a curve and
+	// a design life (fatigue.curve, fatigue.design_life).
+	Life     *NominalLifeDoc `json:"service_life,omitempty"`
+	Warnings []string        `json:"warnings"`
+	Caution  string          `json:"caution"`
+}
+
+// NominalLifeDoc is the life of the nominal joint: inputs at their means,
+// the median curve, a critical damage sum of 1 (Miner).
+type NominalLifeDoc struct {
+	Curve string `json:"curve"`
+	// Cycles is the nominal life; null when it is infinite (below the
+	// curve's endurance limit or cut-off).
+	Cycles     *float64 `json:"cycles" jsonschema:"nullable"`
+	DesignLife float64  `json:"design_life_cycles"`
+	// Ratio is Cycles/DesignLife (null when infinite): a margin on life,
+	// not a probability — 'boltrisk life' gives that.
+	Ratio *float64 `json:"life_over_design_life" jsonschema:"nullable"`
 }
 
 // TighteningCheckDoc is the deterministic cross-check of the tightening a
@@ -157,7 +173,24 @@ func Body(n model.Nominal) NominalBody {
 // Nominal documents a scenario's nominal evaluation n.
 func Nominal(s *scenario.Scenario, n model.Nominal, version string) NominalDoc {
 	return NominalDoc{Envelope: envelope("nominal", version), Scenario: Info(s), Joint: Joint(s), Inputs: Inputs(s, units.SI),
-		NominalBody: Body(n), Checks: ChecksOf(s, n.Outcome.Stiffness), Warnings: warnings(s), Caution: Caution}
+		NominalBody: Body(n), Checks: ChecksOf(s, n.Outcome.Stiffness), Life: nominalLife(s), Warnings: warnings(s), Caution: Caution}
+}
+
+// nominalLife is the nominal service life of a scenario with a life, or nil.
+func nominalLife(s *scenario.Scenario) *NominalLifeDoc {
+	if s.Life == nil || !(s.Life.DesignLife > 0) {
+		return nil
+	}
+	n, err := s.Life.NominalLife(s.Inputs())
+	if err != nil { // the loader has checked the nominal life; nothing to show otherwise
+		return nil
+	}
+	d := &NominalLifeDoc{Curve: s.Life.Curve.Key(), Cycles: finite(n), DesignLife: s.Life.DesignLife}
+	if d.Cycles != nil {
+		r := n / s.Life.DesignLife
+		d.Ratio = &r
+	}
+	return d
 }
 
 // warnings lists the scenario's warnings.
@@ -175,6 +208,14 @@ func WriteNominal(w io.Writer, s *scenario.Scenario, doc NominalDoc, sys units.S
 	writeInputs(w, doc.Joint, Inputs(s, sys), sys)
 	writeNominalBody(w, doc.NominalBody, sys)
 	writeChecks(w, doc.Checks, sys)
+	if l := doc.Life; l != nil {
+		life := "infinite (below the curve's endurance limit or cut-off)"
+		if l.Cycles != nil {
+			life = fmt.Sprintf("%.3g cycles, %.3g × the design life", *l.Cycles, *l.Ratio)
+		}
+		fmt.Fprintf(w, "\nService life (curve %s; inputs at their means, median curve, critical damage 1): %s of %.3g cycles; 'boltrisk life' gives the probability of failure within it\n",
+			l.Curve, life, l.DesignLife)
+	}
 	writeWarnings(w, doc.Warnings)
 	WriteCaution(w)
 }
