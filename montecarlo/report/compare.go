@@ -144,7 +144,7 @@ func WriteCompare(w io.Writer, doc CompareDoc, sys units.System) {
 	}
 	fmt.Fprintln(tw)
 	for i, p := range doc.Variants[0].Modes {
-		fmt.Fprintf(tw, "  %s\t", p.Key)
+		fmt.Fprintf(tw, "  %s\t", p.Title)
 		for _, v := range doc.Variants {
 			fmt.Fprintf(tw, "%s\t", FormatProb(v.Modes[i]))
 		}
@@ -160,7 +160,7 @@ func WriteCompare(w io.Writer, doc CompareDoc, sys units.System) {
 			if md.Ratio != nil {
 				ratio = fmt.Sprintf("%.3g", *md.Ratio)
 			}
-			fmt.Fprintf(tw, "  %s\t%+.3e\t[%+.2e, %+.2e]\t%s\t%s\t\n", md.Key, md.Difference, md.CILow, md.CIHigh, ratio, md.Verdict)
+			fmt.Fprintf(tw, "  %s\t%+.3e\t[%+.2e, %+.2e]\t%s\t%s\t\n", titleOfKey(md.Key), md.Difference, md.CILow, md.CIHigh, ratio, md.Verdict)
 		}
 		tw.Flush()
 	}
@@ -174,4 +174,15 @@ func variantNames(doc CompareDoc) []string {
 		out = append(out, v.Name)
 	}
 	return out
+}
+
+// titleOfKey is the title of a mode key ("any": "Any mode").
+func titleOfKey(key string) string {
+	if m, ok := model.ParseMode(key); ok {
+		return m.Title()
+	}
+	if key == "any" {
+		return "Any mode"
+	}
+	return key
 }
