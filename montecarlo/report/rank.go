@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"html/template"
 	"io"
+	"math"
 	"sort"
 	"strconv"
 	"text/tabwriter"
@@ -36,7 +37,8 @@ type RankRow struct {
 	// Any is the any-mode probability with its interval; the ranking key is
 	// its ci_high.
 	Any ProbDoc `json:"any"`
-	// Governing is the mode with the highest upper bound.
+	// Governing is the mode with the highest upper bound (on a tie, the
+	// smaller nominal safety factor).
 	Governing       string  `json:"governing_mode"`
 	GoverningTitle  string  `json:"governing_title"`
 	GoverningCIHigh float64 `json:"governing_ci_high"`
@@ -78,14 +80,21 @@ func Rank(es []RankEntry, target float64, version string) RankDoc {
 		sd := &e.Doc
 		row := RankRow{Scenario: sd.Scenario, Method: sd.Method, Samples: sd.Samples, Seed: sd.Seed, Report: e.Report,
 			Partial: sd.Partial, Warnings: len(sd.Warnings), GoverningCIHigh: -1}
+		govSF := math.Inf(1)
 		for _, m := range sd.Modes {
 			if m.Key == "any" {
 				row.Any = m
 				row.Any.SFPercentiles, row.Any.PerBolt, row.Any.NominalSF = nil, nil, nil
 				continue
 			}
-			if m.CIHigh > row.GoverningCIHigh {
-				row.Governing, row.GoverningTitle, row.GoverningCIHigh = m.Key, m.Title, m.CIHigh
+			// Equal bounds (no failure in either mode, say) go to the mode
+			// with the smaller nominal safety factor.
+			sf := math.Inf(1)
+			if m.NominalSF != nil {
+				sf = *m.NominalSF
+			}
+			if m.CIHigh > row.GoverningCIHigh || (m.CIHigh == row.GoverningCIHigh && sf < govSF) {
+				row.Governing, row.GoverningTitle, row.GoverningCIHigh, govSF = m.Key, m.Title, m.CIHigh, sf
 			}
 		}
 		if row.GoverningCIHigh < 0 {
