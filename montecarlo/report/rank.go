@@ -80,22 +80,14 @@ func Rank(es []RankEntry, target float64, version string) RankDoc {
 		sd := &e.Doc
 		row := RankRow{Scenario: sd.Scenario, Method: sd.Method, Samples: sd.Samples, Seed: sd.Seed, Report: e.Report,
 			Partial: sd.Partial, Warnings: len(sd.Warnings), GoverningCIHigh: -1}
-		govSF := math.Inf(1)
 		for _, m := range sd.Modes {
 			if m.Key == "any" {
 				row.Any = m
 				row.Any.SFPercentiles, row.Any.PerBolt, row.Any.NominalSF = nil, nil, nil
-				continue
 			}
-			// Equal bounds (no failure in either mode, say) go to the mode
-			// with the smaller nominal safety factor.
-			sf := math.Inf(1)
-			if m.NominalSF != nil {
-				sf = *m.NominalSF
-			}
-			if m.CIHigh > row.GoverningCIHigh || (m.CIHigh == row.GoverningCIHigh && sf < govSF) {
-				row.Governing, row.GoverningTitle, row.GoverningCIHigh, govSF = m.Key, m.Title, m.CIHigh, sf
-			}
+		}
+		if g := governing(sd.Modes); g != nil {
+			row.Governing, row.GoverningTitle, row.GoverningCIHigh = g.Key, g.Title, g.CIHigh
 		}
 		if row.GoverningCIHigh < 0 {
 			row.GoverningCIHigh = 0
@@ -183,3 +175,26 @@ td.num{text-align:right;font-variant-numeric:tabular-nums}
 
 // WriteRankHTML writes the index page of a ranking.
 func WriteRankHTML(w io.Writer, d RankDoc) error { return rankPage.Execute(w, d) }
+
+// governing returns the mode with the largest upper bound (on a tie — no
+// failure in either mode, say — the one with the smaller nominal safety
+// factor), or nil when no mode but "any" is listed.
+func governing(modes []ProbDoc) *ProbDoc {
+	var g *ProbDoc
+	sfOf := func(p *ProbDoc) float64 {
+		if p.NominalSF != nil {
+			return *p.NominalSF
+		}
+		return math.Inf(1)
+	}
+	for i := range modes {
+		m := &modes[i]
+		if m.Key == "any" {
+			continue
+		}
+		if g == nil || m.CIHigh > g.CIHigh || (m.CIHigh == g.CIHigh && sfOf(m) < sfOf(g)) {
+			g = m
+		}
+	}
+	return g
+}

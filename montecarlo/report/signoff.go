@@ -79,7 +79,6 @@ func SignOffSheet(s *scenario.Scenario, doc SimDoc, target float64, targetFrom s
 	} else {
 		so.Target = "No target given (study.target_probability or simulate --sign-off P): estimates only, no verdicts."
 	}
-	gov, govHi := "", -1.0
 	for i, p := range doc.Modes {
 		v := "-"
 		if target > 0 && i < len(verdicts) {
@@ -89,9 +88,6 @@ func SignOffSheet(s *scenario.Scenario, doc SimDoc, target float64, targetFrom s
 			}
 		}
 		so.Rows = append(so.Rows, []string{p.Title, FormatProb(p), fmt.Sprintf("%.2e", p.CIHigh), v})
-		if p.Key != "any" && p.CIHigh > govHi {
-			gov, govHi = p.Key, p.CIHigh
-		}
 		if p.Key == "any" {
 			if target > 0 && i < len(verdicts) {
 				st := strings.ToUpper(verdicts[i].State.String())
@@ -100,9 +96,10 @@ func SignOffSheet(s *scenario.Scenario, doc SimDoc, target float64, targetFrom s
 			so.Joint = fmt.Sprintf("The joint (any mode, %s, upper bound %.2e): %s.", FormatProb(p), p.CIHigh, v)
 		}
 	}
-	so.Governing = "Governing mode: " + gov + " (the largest upper bound)."
-	if gov == "" {
-		so.Governing = "Governing mode: none (no mode is active)."
+	gov := ""
+	so.Governing = "Governing mode: none (no mode is active)."
+	if g := governing(doc.Modes); g != nil {
+		so.Governing, gov = "Governing mode: "+g.Title+" (the largest upper bound; on a tie the smaller nominal safety factor).", g.Key
 	}
 	if doc.Partial {
 		so.Run += " PARTIAL RESULT: the run was interrupted; the verdicts rest on the samples done."
