@@ -168,26 +168,19 @@ func precisionMet(es []Estimate, prec float64) bool {
 // estimated from the same samples, so the results share one evaluation
 // count. A cancelled ctx gives the results so far, marked Partial.
 func Importance(ctx context.Context, p *Problem, s *ImportanceSettings) ([]Result, error) {
-	if err := p.Validate(); err != nil {
-		return nil, err
-	}
-	is, err := s.withDefaults()
+	is, err := importanceSetup(p, s)
 	if err != nil {
 		return nil, err
 	}
-	evs := newEvaluators(p, is.Workers)
-	fs := is.FORM
-	fs.Workers = is.Workers
-	dps := designPoints(p, fs, evs)
-	q, err := NewProposal(p, dps, &is)
+	pl, err := buildPlan(p, is)
 	if err != nil {
 		return nil, err
 	}
-	sums, cerr := sample(ctx, p, q, is, evs)
+	sums, cerr := sample(ctx, p, pl.q, is, pl.evs)
 	if len(sums.Events) == 0 {
 		return nil, cerr
 	}
-	return importanceResults(p, q, dps, &sums, is, cerr != nil), nil
+	return importanceResults(p, pl.q, pl.dps, &sums, is, cerr != nil), nil
 }
 
 // importanceResults turns the merged sums of an importance-sampling run

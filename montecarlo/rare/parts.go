@@ -22,16 +22,28 @@ type ImportancePlan struct {
 // importance-sampling run of s.Samples samples (which must be > 0: a run
 // that stops on a precision cannot be split).
 func PlanImportance(p *Problem, s *ImportanceSettings) (*ImportancePlan, error) {
-	if err := p.Validate(); err != nil {
-		return nil, err
-	}
-	is, err := s.withDefaults()
+	is, err := importanceSetup(p, s)
 	if err != nil {
 		return nil, err
 	}
 	if is.Samples <= 0 {
 		return nil, fmt.Errorf("rare: a split importance-sampling run needs a fixed Samples > 0")
 	}
+	return buildPlan(p, is)
+}
+
+// importanceSetup validates the problem and returns the settings with
+// their defaults: the first step of every importance-sampling run.
+func importanceSetup(p *Problem, s *ImportanceSettings) (ImportanceSettings, error) {
+	if err := p.Validate(); err != nil {
+		return ImportanceSettings{}, err
+	}
+	return s.withDefaults()
+}
+
+// buildPlan finds the design points and builds the mixture: the set-up of
+// every importance-sampling run, split or not.
+func buildPlan(p *Problem, is ImportanceSettings) (*ImportancePlan, error) {
 	evs := newEvaluators(p, is.Workers)
 	fs := is.FORM
 	fs.Workers = is.Workers
