@@ -1,6 +1,7 @@
 package scenario
 
 import (
+	"fmt"
 	"math"
 	"slices"
 	"strings"
@@ -195,14 +196,5 @@ func (b *builder) tightening() error {
 // naming the range in the scenario's units.
 func (b *builder) within(path string, lo, hi float64) error {
 	f := mustField(path)
-	v := *f.ptr(b.in)
-	if _, ok := b.r.vals[path]; !ok && v == 0 {
-		if _, unc := b.s.Uncertain(path); !unc {
-			return nil
-		}
-	}
-	if !(v > lo && v <= hi) {
-		return b.p.errf(b.lineOf(path), path, b.fmt(v, f.dim), "%s must lie within %s … %s", f.label, b.fmt(lo, f.dim), b.fmt(hi, f.dim))
-	}
-	return nil
+	return b.physical(path, lo, hi, fmt.Sprintf("%s must lie within %s … %s", f.label, b.fmt(lo, f.dim), b.fmt(hi, f.dim)))
 }
