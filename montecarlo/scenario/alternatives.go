@@ -41,14 +41,7 @@ func (s *Scenario) Alternative(name string, sets map[string]string) (*Scenario, 
 		if !knownPath(path) {
 			return nil, fmt.Errorf("%s: no such input%s", path, suggest(path, allPaths()))
 		}
-		switch path {
-		case "tightening.condition":
-			delete(r.vals, "tightening.nut_factor")
-			delete(r.vals, "tightening.thread_friction")
-			delete(r.vals, "tightening.head_friction")
-		case "tightening.nut_factor", "tightening.thread_friction", "tightening.head_friction":
-			delete(r.vals, "tightening.condition")
-		}
+		r.supersede(path)
 		r.vals[path] = &yaml.Node{Kind: yaml.ScalarNode, Tag: "!!str", Value: sets[path]}
 	}
 	out, err := s.parser.buildOne(r)

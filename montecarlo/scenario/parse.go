@@ -21,6 +21,20 @@ type rawDoc struct {
 	nLay  int
 }
 
+// supersede removes what setting path replaces: a condition preset
+// replaces the explicit nut factor and friction values it governs, and an
+// explicit value replaces the preset (variants and alternatives alike).
+func (r *rawDoc) supersede(path string) {
+	switch path {
+	case "tightening.condition":
+		delete(r.vals, "tightening.nut_factor")
+		delete(r.vals, "tightening.thread_friction")
+		delete(r.vals, "tightening.head_friction")
+	case "tightening.nut_factor", "tightening.thread_friction", "tightening.head_friction":
+		delete(r.vals, "tightening.condition")
+	}
+}
+
 func (r rawDoc) clone() rawDoc {
 	c := r
 	c.vals = make(map[string]*yaml.Node, len(r.vals))

@@ -67,15 +67,7 @@ func (p *parser) buildVariants(base *Scenario, r rawDoc) error {
 			if !knownPath(path) {
 				return p.errf(k.Line, "variants.set."+path, "", "no such input%s", suggest(path, allPaths()))
 			}
-			// A preset replaces the explicit values it governs, and vice versa.
-			switch path {
-			case "tightening.condition":
-				delete(vr.vals, "tightening.nut_factor")
-				delete(vr.vals, "tightening.thread_friction")
-				delete(vr.vals, "tightening.head_friction")
-			case "tightening.nut_factor", "tightening.thread_friction", "tightening.head_friction":
-				delete(vr.vals, "tightening.condition")
-			}
+			vr.supersede(path)
 			vr.vals[path], vr.keyAt[path] = v, k.Line
 			return nil
 		})
