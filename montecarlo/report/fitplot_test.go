@@ -50,3 +50,22 @@ func TestProbabilityPlotPapers(t *testing.T) {
 		}
 	}
 }
+
+// The fit places points with its paper's transform and plots draws the
+// axis with its own: the two must be the same map, paper by paper.
+func TestPapersAgree(t *testing.T) {
+	for _, fp := range []fit.Paper{fit.NormalPaper, fit.LognormalPaper, fit.WeibullPaper} {
+		pp := paperOf(fp)
+		if fp.LogX() != pp.LogX() {
+			t.Errorf("%v: log x %v in fit, %v in plots", fp, fp.LogX(), pp.LogX())
+		}
+		for _, p := range []float64{1e-4, 0.01, 0.3, 0.5, 0.9, 0.999} {
+			if a, b := fp.Y(p), pp.Y(p); a != b {
+				t.Errorf("paper %v at p = %g: fit y %g, plots y %g", fp, p, a, b)
+			}
+			if a, b := fp.P(fp.Y(p)), pp.P(pp.Y(p)); a != b {
+				t.Errorf("paper %v at p = %g: inverse %g vs %g", fp, p, a, b)
+			}
+		}
+	}
+}
