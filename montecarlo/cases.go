@@ -75,7 +75,10 @@ const fatigueModes = model.ModeSet(1<<model.Fatigue | 1<<model.FatigueLife)
 // Detail the safety factors and clamp forces are the least over the cases,
 // the bolt forces the largest; with Margins each component's margin is the
 // least over the cases. The residual preload is the least over the cases.
-// It allocates nothing.
+// It allocates nothing. It repeats the shape of Eval's loop rather than
+// sharing it: folding the two (one pass of a case loop for files without
+// cases) measured +1.7 % instructions per cover-flange sample by callgrind
+// on BenchmarkChunkCoverFlange, and a per-case helper +2.4 %.
 func (e *Evaluator) evalCases(rows []float64, n int, o *Out, want Want) {
 	k := e.k
 	d, ns, np, nb, nc := k.Dim(), len(k.shared), len(k.perBolt), k.nBolts, len(k.cases)
@@ -104,12 +107,7 @@ func (e *Evaluator) evalCases(rows []float64, n int, o *Out, want Want) {
 					e.lifeMode(br)
 				}
 				invalid = invalid || br.Invalid
-				var f model.ModeSet
-				for _, m := range k.boltModes {
-					if br.Active[m] && model.Failed(br.Capacity[m], br.Demand[m]) {
-						f |= 1 << m
-					}
-				}
+				f := br.Failures(k.boltSet)
 				if ci > 0 {
 					f &^= fatigueModes
 				}
@@ -127,11 +125,7 @@ func (e *Evaluator) evalCases(rows []float64, n int, o *Out, want Want) {
 			}
 			if k.jointLevel {
 				model.JointModes(&e.in, model.ClampSum(&e.in, bolts), &e.out)
-				for _, m := range k.jointModes {
-					if e.out.Active[m] && model.Failed(e.out.Capacity[m], e.out.Demand[m]) {
-						fail |= 1 << m
-					}
-				}
+				fail |= e.out.Failures(k.jointSet)
 			}
 			o.CaseFail[j*nc+ci] = fail
 			all |= fail

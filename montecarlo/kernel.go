@@ -45,6 +45,7 @@ type Kernel struct {
 	boltModes  []model.Mode  // the reported modes decided bolt by bolt
 	boltSet    model.ModeSet // the same as a set
 	jointModes []model.Mode  // the reported joint-level modes
+	jointSet   model.ModeSet // the same as a set
 	set        model.ModeSet
 	nominal    model.Nominal
 	cases      []Case    // load cases (none: Base's loads)
@@ -105,6 +106,7 @@ func NewKernel(p *Problem, modes []model.Mode) (*Kernel, error) {
 			k.boltSet |= 1 << m
 		} else {
 			k.jointModes = append(k.jointModes, m)
+			k.jointSet |= 1 << m
 		}
 	}
 	pos := make([]int, len(p.Vars)) // index within its group
@@ -470,11 +472,7 @@ func (e *Evaluator) Eval(rows []float64, n int, o *Out, want Want) {
 		}
 		if k.jointLevel {
 			model.JointModes(&e.in, model.ClampSum(&e.in, bolts), &e.out)
-			for _, m := range k.jointModes {
-				if e.out.Active[m] && model.Failed(e.out.Capacity[m], e.out.Demand[m]) {
-					fail |= 1 << m
-				}
-			}
+			fail |= e.out.Failures(k.jointSet)
 		}
 		o.Invalid[j], o.Fail[j] = invalid, fail
 		if detail {
