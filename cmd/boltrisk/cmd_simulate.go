@@ -114,10 +114,9 @@ func runSimulate(ctx context.Context, opts *SimulateOptions) error {
 	opts.Run.timing(opts.ErrOut, res.Evaluations, res.Elapsed)
 	doc := report.Simulation(s, res, report.Run{Samples: set.Samples, Interval: set.Interval}, toolVersion())
 	if opts.Drivers && !res.Partial {
-		dset := set
-		if dset.Method != montecarlo.Importance && res.Method != "importance" {
-			dset.Method = montecarlo.Crude
-		} else {
+		dset := set // the drivers follow the method the run used
+		dset.Method = montecarlo.Crude
+		if res.Method == montecarlo.Importance.String() {
 			dset.Method = montecarlo.Importance
 		}
 		d, err := driversOf(ctx, s, dset, decide.DefaultSubsample)
