@@ -35,10 +35,7 @@ const MaxParts = 1 << 20
 
 // PartChunks returns the chunk block [c0, c1) of part k of n (k from 1)
 // of a budget of samples.
-func PartChunks(samples int64, k, n int) (c0, c1 int64) {
-	c := chunks(samples)
-	return (int64(k) - 1) * c / int64(n), int64(k) * c / int64(n)
-}
+func PartChunks(samples int64, k, n int) (c0, c1 int64) { return partBlock(chunks(samples), k, n) }
 
 // ChunkSum is the floating sums of one chunk: count, sum and sum of squares
 // of the residual preload of its bolt evaluations.
@@ -353,14 +350,10 @@ func partBlock(c int64, k, n int) (int64, int64) {
 // s.Samples samples (see Settings.FixedSamples).
 func rarePlan(k *Kernel, s Settings) (*rare.ImportancePlan, error) {
 	s.FixedSamples = true
-	prec := s.Precision
-	if prec == 0 {
-		prec = DefaultPrecision
-	}
 	if k.Dim() == 0 {
 		return nil, fmt.Errorf("method importance needs uncertain inputs: no input has a distribution (every sample is the nominal joint); use crude")
 	}
-	return rare.PlanImportance(k.RareProblem(), importanceSettings(s, prec))
+	return rare.PlanImportance(k.RareProblem(), importanceSettings(s))
 }
 
 // runImportancePart runs part k of n of an importance-sampling run of

@@ -5,6 +5,7 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"strings"
 	"time"
 
 	"boltrisk/model"
@@ -293,17 +294,14 @@ func runAuto(ctx context.Context, k *Kernel, s Settings) (*Result, string, error
 		return res, "importance sampling at the design points: " + why + "; every design point was found and the weights are healthy", nil
 	}
 	sub, err := runRare(ctx, k, s, Subset)
-	return sub, fmt.Sprintf("subset simulation: %s; importance sampling was not trusted (%s)", why, joinComma(problems)), err
+	return sub, fmt.Sprintf("subset simulation: %s; importance sampling was not trusted (%s)", why, strings.Join(problems, "; ")), err
 }
 
 // autoCrude runs auto's crude pilot and reports whether the budget reaches
 // the precision (crude Monte Carlo, with its note) or why not; an
 // interrupted pilot is returned with the error.
 func autoCrude(ctx context.Context, k *Kernel, s Settings) (bool, string, *Result, error) {
-	prec := s.Precision
-	if prec == 0 {
-		prec = DefaultPrecision
-	}
+	prec := rarePrecision(s)
 	need := 1 / (prec * prec)
 	ps := s
 	ps.Samples, ps.Precision, ps.ProbabilitiesOnly, ps.Progress = min(s.Samples, autoPilot), 0, true, nil
@@ -323,32 +321,18 @@ func autoCrude(ctx context.Context, k *Kernel, s Settings) (bool, string, *Resul
 	return false, fmt.Sprintf("a pilot of %d crude samples found %d failures, so the budget of %d samples would give about %.0f, fewer than the %.0f that a c.o.v. of %.3g needs", pilot.Samples, pilot.Any.Failures, s.Samples, expect, need, prec), pilot, nil
 }
 
-func joinComma(s []string) string {
-	out := ""
-	for i, x := range s {
-		if i > 0 {
-			out += "; "
-		}
-		out += x
-	}
-	return out
-}
-
 // runRare estimates every reported mode and any mode by importance sampling
 // or subset simulation in standard-normal space, with the percentiles from
 // a crude pass of PercentileSamples.
 func runRare(ctx context.Context, k *Kernel, s Settings, m Method) (*Result, error) {
 	start := time.Now()
-	prec := s.Precision
-	if prec == 0 {
-		prec = DefaultPrecision
-	}
+	prec := rarePrecision(s)
 	p := k.RareProblem()
 	var rs []rare.Result
 	var err error
 	switch m {
 	case Importance:
-		rs, err = rare.Importance(ctx, p, importanceSettings(s, prec))
+		rs, err = rare.Importance(ctx, p, importanceSettings(s))
 	default:
 		rs, err = rare.Subset(ctx, p, &rare.SubsetSettings{Seed: s.Seed, Workers: s.Workers, Precision: prec, Confidence: s.Confidence,
 			Runs: s.Repeats, MaxRuns: max(s.Repeats, rare.DefaultMaxRuns)})
@@ -363,11 +347,20 @@ func runRare(ctx context.Context, k *Kernel, s Settings, m Method) (*Result, err
 	return rareResult(ctx, k, s, m, rs, start)
 }
 
+// rarePrecision is the c.o.v. a rare-event run aims at: the settings'
+// precision, else DefaultPrecision.
+func rarePrecision(s Settings) float64 {
+	if s.Precision == 0 {
+		return DefaultPrecision
+	}
+	return s.Precision
+}
+
 // importanceSettings are the settings of an importance-sampling run: up
 // to s.Samples samples until the precision is met, or exactly s.Samples
 // with FixedSamples (as the parts of a split run draw).
-func importanceSettings(s Settings, prec float64) *rare.ImportanceSettings {
-	is := &rare.ImportanceSettings{Seed: s.Seed, Workers: s.Workers, Precision: prec, MaxSamples: s.Samples, Confidence: s.Confidence}
+func importanceSettings(s Settings) *rare.ImportanceSettings {
+	is := &rare.ImportanceSettings{Seed: s.Seed, Workers: s.Workers, Precision: rarePrecision(s), MaxSamples: s.Samples, Confidence: s.Confidence}
 	if s.FixedSamples {
 		is.Samples = s.Samples
 	}
@@ -377,10 +370,7 @@ func importanceSettings(s Settings, prec float64) *rare.ImportanceSettings {
 // rareResult builds the result of a rare-event run from its per-event
 // results, with the percentiles from a crude pass.
 func rareResult(ctx context.Context, k *Kernel, s Settings, m Method, rs []rare.Result, start time.Time) (*Result, error) {
-	prec := s.Precision
-	if prec == 0 {
-		prec = DefaultPrecision
-	}
+	prec := rarePrecision(s)
 	res := &Result{Method: m.String(), Seed: s.Seed, Workers: s.Workers, Confidence: s.Confidence, Precision: s.Precision,
 		NBolts: k.nBolts, Nominal: k.Nominal(), Rare: &RareInfo{Events: rs}}
 	res.Converged = true
