@@ -492,7 +492,7 @@ func CheckParts(files []string, docs []*PartDoc, version string, allowMissing bo
 		}
 	}
 	if len(ps.Missing) > 0 && !allowMissing {
-		return nil, fmt.Errorf("%d of %d parts missing (K = %s); give every part-K-of-%d.json, or --allow-missing for a partial result", len(ps.Missing), ref.Parts, rangeList(ps.Missing), ref.Parts)
+		return nil, fmt.Errorf("%d of %d parts missing (K = %s); give every part-K-of-%d.json, or --allow-missing for a partial result", len(ps.Missing), ref.Parts, RangeList(ps.Missing), ref.Parts)
 	}
 	return ps, nil
 }
@@ -509,8 +509,8 @@ func sameVary(a, b *PartVary) bool {
 	return *a == *b
 }
 
-// rangeList writes sorted indices as ranges: 1, 3-5, 9.
-func rangeList(ks []int) string {
+// RangeList writes sorted indices as ranges: 1, 3-5, 9.
+func RangeList(ks []int) string {
 	var parts []string
 	for i := 0; i < len(ks); {
 		j := i
@@ -526,9 +526,6 @@ func rangeList(ks []int) string {
 	}
 	return strings.Join(parts, ", ")
 }
-
-// RangeList writes sorted part indices as ranges (1, 3-5, 9).
-func RangeList(ks []int) string { return rangeList(ks) }
 
 // JSONSchema describes a PartFloat: a number or one of "inf", "-inf", "nan".
 func (PartFloat) JSONSchema() *jsonschema.Schema {
