@@ -96,16 +96,3 @@ func caseInputs(s *scenario.Scenario, sys units.System) []InputDoc {
 	}
 	return out
 }
-
-// caseHeld reports whether the load cases hold the input (their own rows
-// replace the top-level loads and temperature change).
-func caseHeld(s *scenario.Scenario, path string) bool {
-	if len(s.Problem.Cases) == 0 {
-		return false
-	}
-	switch path {
-	case "loads.axial_max", "loads.axial_min", "loads.shear", "service.temperature_change":
-		return true
-	}
-	return false
-}

@@ -158,7 +158,7 @@ func Inputs(s *scenario.Scenario, sys units.System) []InputDoc {
 	var out []InputDoc
 	in := s.Inputs()
 	for _, f := range s.Shown() {
-		if caseHeld(s, f.Path) {
+		if s.CaseHeld(f.Path) {
 			continue
 		}
 		d := InputDoc{Path: f.Path, Label: f.Label, Dimension: f.Dim.Key(), Unit: internalUnit(f.Dim),

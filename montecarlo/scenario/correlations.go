@@ -58,7 +58,7 @@ func (b *builder) correlations() error {
 					idx[j] = i
 				}
 			}
-			if idx[j] < 0 && len(s.Problem.Cases) > 0 && caseHeld(s, path) {
+			if idx[j] < 0 && s.CaseHeld(path) {
 				return p.errf(nameLine, "correlations.between", nm, "is drawn in each load case once loads.cases is given (loads.cases.NAME.%s), and load-case values cannot be correlated; correlate inputs outside the load cases", path[strings.LastIndex(path, ".")+1:])
 			}
 			if idx[j] < 0 {
@@ -80,16 +80,4 @@ func (b *builder) correlations() error {
 		}
 	}
 	return nil
-}
-
-// caseHeld reports whether the load cases took the input at path over
-// (some case draws a value of it).
-func caseHeld(s *Scenario, path string) bool {
-	key := path[strings.LastIndex(path, ".")+1:]
-	for _, v := range s.Problem.Vars {
-		if v.Case > 0 && strings.HasSuffix(v.Name, "."+key) {
-			return true
-		}
-	}
-	return false
 }

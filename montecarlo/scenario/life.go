@@ -192,6 +192,20 @@ func (b *builder) designLife(spec *montecarlo.LifeSpec) error {
 	return nil
 }
 
+// CaseHeld reports whether the load cases hold the input at path: with
+// loads.cases, each case draws its own axial loads, shear and temperature
+// change (a key a case omits takes the top-level value, drawn per case).
+func (s *Scenario) CaseHeld(path string) bool {
+	if len(s.Problem.Cases) == 0 {
+		return false
+	}
+	switch path {
+	case "loads.axial_max", "loads.axial_min", "loads.shear", "service.temperature_change":
+		return true
+	}
+	return false
+}
+
 func splitUnit(s string) (num, unit string) {
 	s = strings.TrimSpace(s)
 	i := strings.IndexFunc(s, func(c rune) bool { return (c < '0' || c > '9') && !strings.ContainsRune("+-.eE", c) })
