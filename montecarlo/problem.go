@@ -59,3 +59,13 @@ type Problem struct {
 	// fatigue_life is evaluated.
 	Life *LifeSpec
 }
+
+// VarIndex returns the index in Vars of the uncertain input named path.
+func (p *Problem) VarIndex(path string) (int, bool) {
+	for i := range p.Vars {
+		if p.Vars[i].Name == path {
+			return i, true
+		}
+	}
+	return -1, false
+}

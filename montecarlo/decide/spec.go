@@ -176,12 +176,11 @@ func (o *SpecOptions) Validate(p *montecarlo.Problem) error {
 }
 
 func findVar(p *montecarlo.Problem, path string) (*montecarlo.Var, bool) {
-	for i := range p.Vars {
-		if p.Vars[i].Name == path {
-			return &p.Vars[i], true
-		}
+	i, ok := p.VarIndex(path)
+	if !ok {
+		return nil, false
 	}
-	return nil, false
+	return &p.Vars[i], true
 }
 
 // relTol is the relative tolerance at ±3σ of a distribution.

@@ -85,12 +85,11 @@ func (s *Scenario) Inputs() *model.Inputs { return &s.Problem.Base }
 
 // Uncertain returns the uncertain input bound to path, if any.
 func (s *Scenario) Uncertain(path string) (*montecarlo.Var, bool) {
-	for i := range s.Problem.Vars {
-		if s.Problem.Vars[i].Name == path {
-			return &s.Problem.Vars[i], true
-		}
+	i, ok := s.Problem.VarIndex(path)
+	if !ok {
+		return nil, false
 	}
-	return nil, false
+	return &s.Problem.Vars[i], true
 }
 
 // Load reads and validates a scenario file.

@@ -66,7 +66,7 @@ func (v *Vary) Validate(p *montecarlo.Problem) error {
 		}
 	}
 	if v.Kind == Spread {
-		if _, ok := findVar(p, v.Path); !ok {
+		if _, ok := p.VarIndex(v.Path); !ok {
 			return fmt.Errorf("%s is not uncertain: only an input with a distribution has a scatter to vary", v.Path)
 		}
 	}
@@ -76,22 +76,13 @@ func (v *Vary) Validate(p *montecarlo.Problem) error {
 	return nil
 }
 
-func findVar(p *montecarlo.Problem, path string) (int, bool) {
-	for i := range p.Vars {
-		if p.Vars[i].Name == path {
-			return i, true
-		}
-	}
-	return -1, false
-}
-
 // Apply returns a copy of p changed to step value x.
 func (v *Vary) Apply(p *montecarlo.Problem, x float64) (*montecarlo.Problem, error) {
 	q := &montecarlo.Problem{Base: p.Base, Vars: append([]montecarlo.Var(nil), p.Vars...), Corr: p.Corr,
 		Cases: append([]montecarlo.Case(nil), p.Cases...), Life: p.Life}
 	switch v.Kind {
 	case Input:
-		if i, ok := findVar(q, v.Path); ok {
+		if i, ok := q.VarIndex(v.Path); ok {
 			old := q.Vars[i].Dist.Mean()
 			var d montecarlo.Dist
 			var err error
@@ -124,7 +115,7 @@ func (v *Vary) Apply(p *montecarlo.Problem, x float64) (*montecarlo.Problem, err
 			q.Vars[i].Dist = d
 		}
 	case Spread:
-		i, _ := findVar(q, v.Path)
+		i, _ := q.VarIndex(v.Path)
 		d, err := q.Vars[i].Dist.Scaled(x)
 		if err != nil {
 			return nil, fmt.Errorf("%s scatter × %g: %w", v.Path, x, err)
@@ -464,7 +455,7 @@ func FindSpreadLimit(ctx context.Context, p *montecarlo.Problem, path string, ta
 		if err != nil {
 			return 0, montecarlo.Dist{}, err
 		}
-		i, _ := findVar(q, path)
+		i, _ := q.VarIndex(path)
 		return r.Any.P, q.Vars[i].Dist, nil
 	}
 	pLo, dLo, err := eval(MinSpread)
