@@ -293,28 +293,6 @@ func meets(r *montecarlo.Result, target float64, upper bool) bool {
 	return r.Any.P <= target
 }
 
-// above lists the modes over the target in r, largest first.
-func above(r *montecarlo.Result, target float64, upper bool) []model.Mode {
-	ms := append([]montecarlo.ModeResult(nil), r.Modes...)
-	val := func(m montecarlo.ModeResult) float64 {
-		if upper {
-			return m.Estimate.Hi
-		}
-		return m.Estimate.P
-	}
-	sort.SliceStable(ms, func(i, j int) bool { return val(ms[i]) > val(ms[j]) })
-	var out []model.Mode
-	for _, m := range ms {
-		if val(m) > target {
-			out = append(out, m.Mode)
-		}
-	}
-	if len(out) == 0 && len(ms) > 0 {
-		out = append(out, ms[0].Mode)
-	}
-	return out
-}
-
 // toleranceEdge bisects, in the logarithm of the relative tolerance, for
 // the widest tolerance of the controlled input at q's nominal that meets
 // the target; every run uses the same seed (common random numbers). It
@@ -340,7 +318,7 @@ func toleranceEdge(ctx context.Context, q *montecarlo.Problem, o SpecOptions, s 
 		return e, nil, err
 	}
 	if !meets(rLo, o.Target, upper) {
-		e.Misses, e.Modes = lo, above(rLo, o.Target, upper)
+		e.Misses, e.Modes = lo, aboveTarget(rLo, o.Target, upper)
 		return e, rLo, nil
 	}
 	e.Found = true
@@ -352,7 +330,7 @@ func toleranceEdge(ctx context.Context, q *montecarlo.Problem, o SpecOptions, s 
 		e.AtMax, e.Meets, e.Misses = true, hi, hi
 		return e, rHi, nil
 	}
-	e.Modes = above(rHi, o.Target, upper)
+	e.Modes = aboveTarget(rHi, o.Target, upper)
 	best := rLo
 	a, b := math.Log(lo), math.Log(hi)
 	for range ToleranceHalvings {
@@ -365,7 +343,7 @@ func toleranceEdge(ctx context.Context, q *montecarlo.Problem, o SpecOptions, s 
 			a, best = mid, r
 		} else {
 			b = mid
-			e.Modes = above(r, o.Target, upper)
+			e.Modes = aboveTarget(r, o.Target, upper)
 		}
 	}
 	e.Meets, e.Misses = math.Exp(a), math.Exp(b)
@@ -460,4 +438,11 @@ func SettingPerPreload(p *montecarlo.Problem, field func(*model.Inputs) *float64
 		return x / fm
 	}
 	return 0
+}
+
+// aboveTarget lists the modes above the target (upper bounds or point
+// estimates), worst first, or the worst mode when none is (study.Above).
+func aboveTarget(r *montecarlo.Result, target float64, upper bool) []model.Mode {
+	ms, _ := study.Above(r, target, upper)
+	return ms
 }

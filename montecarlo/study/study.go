@@ -307,18 +307,20 @@ func FindWindow(sw *Sweep, target float64, conservative bool) Window {
 	w.LoOut, w.HiOut = w.Lo, w.Hi
 	if !w.OpenLo {
 		w.LoOut = sw.Steps[lo-1].X
-		w.LoModes, w.LoCombined = above(sw.Steps[lo-1].Result, target, conservative)
+		w.LoModes, w.LoCombined = Above(sw.Steps[lo-1].Result, target, conservative)
 	}
 	if !w.OpenHi {
 		w.HiOut = sw.Steps[hi+1].X
-		w.HiModes, w.HiCombined = above(sw.Steps[hi+1].Result, target, conservative)
+		w.HiModes, w.HiCombined = Above(sw.Steps[hi+1].Result, target, conservative)
 	}
 	w.Resolution = math.Max(math.Abs(w.Lo-w.LoOut), math.Abs(w.HiOut-w.Hi))
 	return w
 }
 
-// above lists the modes above the target in r, most probable first.
-func above(r *montecarlo.Result, target float64, conservative bool) ([]model.Mode, bool) {
+// Above lists the modes above the target in r, most probable first (by
+// their upper bounds when conservative); when none is, the most probable
+// mode and true: only the modes together exceed the target.
+func Above(r *montecarlo.Result, target float64, conservative bool) ([]model.Mode, bool) {
 	ms := make([]montecarlo.ModeResult, len(r.Modes))
 	copy(ms, r.Modes)
 	sort.SliceStable(ms, func(i, j int) bool { return prob(ms[i].Estimate, conservative) > prob(ms[j].Estimate, conservative) })
@@ -363,7 +365,7 @@ func RefineWindow(ctx context.Context, p *montecarlo.Problem, sw *Sweep, w *Wind
 			} else {
 				*out = mid
 				if !st.TooFewValid {
-					*modes, *combined = above(r, w.Target, w.Conservative)
+					*modes, *combined = Above(r, w.Target, w.Conservative)
 				}
 			}
 		}
